@@ -1,0 +1,93 @@
+#include "solver/cli.hpp"
+
+#include "post/atomic_file.hpp"
+#include "solver/case_reader.hpp"
+#include "solver/check.hpp"
+#include "solver/exit_codes.hpp"
+
+#include <CLI/CLI.hpp>
+
+#include <filesystem>
+#include <iostream>
+
+namespace heatbead {
+
+namespace {
+
+struct CommonOptions {
+    std::string case_path;
+    std::vector<std::string> sets;
+    std::string format = "text";
+    std::string out_dir;
+    bool quiet = false;
+};
+
+void add_case_options(CLI::App& cmd, CommonOptions& o) {
+    cmd.add_option("case", o.case_path, "case file (TOML)")->required();
+    cmd.add_option("--set", o.sets, "override a case key, e.g. --set procedure.current=\"280 A\" (repeatable)")
+        ->type_size(1)
+        ->allow_extra_args(false);
+    cmd.add_option("--format", o.format, "output format of the summary")->check(CLI::IsMember({"text", "json"}));
+    cmd.add_option("--out", o.out_dir, "folder for the files written");
+    cmd.add_flag("--quiet", o.quiet, "print nothing but errors");
+}
+
+LoadedCase load(const CommonOptions& o) {
+    std::vector<Override> overrides;
+    for (const auto& s : o.sets) overrides.push_back(parse_override(s));
+    return read_case(o.case_path, overrides);
+}
+
+int check_command(const CommonOptions& o, bool resolved) {
+    const LoadedCase loaded = load(o);
+    const CheckReport report = make_check_report(loaded.value);
+    if (!o.out_dir.empty()) {
+        const std::filesystem::path dir(o.out_dir);
+        post::write_file_atomically(dir / "case.resolved.toml", loaded.resolved_toml);
+        post::write_file_atomically(dir / "check.json", to_json(report).dump(2) + "\n");
+    }
+    if (o.quiet) return exit_code::ok;
+    if (resolved) {
+        std::cout << loaded.resolved_toml;
+    } else if (o.format == "json") {
+        std::cout << to_json(report).dump(2) << "\n";
+    } else {
+        std::cout << to_text(report);
+        if (!o.out_dir.empty()) std::cout << "Files       " << o.out_dir << "/check.json, case.resolved.toml\n";
+    }
+    return exit_code::ok;
+}
+
+}  // namespace
+
+int run_command_line(int argc, char** argv) {
+    CLI::App app{"heatbead: heat flow of one arc-welding pass on a fillet-welded tee joint"};
+    app.require_subcommand(1);
+    CommonOptions options;
+    bool resolved = false;
+    auto* check = app.add_subcommand("check", "validate a case and print the quantities to check before a run");
+    add_case_options(*check, options);
+    check->add_flag("--resolved", resolved, "print the resolved case (every default filled in) as TOML");
+
+    try {
+        app.parse(argc, argv);
+    } catch (const CLI::ParseError& e) {
+        const int code = app.exit(e);
+        return code == 0 ? exit_code::ok : exit_code::bad_input;
+    }
+    try {
+        if (check->parsed()) return check_command(options, resolved);
+    } catch (const CaseError& e) {
+        const auto& d = e.diagnostics();
+        std::cerr << "heatbead: " << d.size() << (d.size() == 1 ? " problem" : " problems")
+                  << " in the case; nothing was computed or written:\n";
+        for (const auto& item : d) std::cerr << "  " << item.text() << "\n";
+        return exit_code::bad_input;
+    } catch (const std::exception& e) {
+        std::cerr << "heatbead: " << e.what() << "\n";
+        return exit_code::run_failed;
+    }
+    return exit_code::ok;
+}
+
+}  // namespace heatbead

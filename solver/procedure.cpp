@@ -1,0 +1,134 @@
+#include "solver/procedure.hpp"
+
+#include <algorithm>
+#include <array>
+#include <cmath>
+#include <cstdio>
+#include <numbers>
+
+namespace heatbead {
+
+namespace {
+std::string fmt(const char* format, double a, double b = 0) {
+    char buf[256];
+    std::snprintf(buf, sizeof buf, format, a, b);
+    return buf;
+}
+}  // namespace
+
+EfficiencyDefault default_arc_efficiency(Process process) {
+    switch (process) {
+        case Process::saw: return {1.0, "EN 1011-1 thermal efficiency factor k for submerged arc"};
+        case Process::smaw: return {0.8, "EN 1011-1 thermal efficiency factor k for manual metal arc"};
+        case Process::fcaw: return {0.8, "EN 1011-1 thermal efficiency factor k for flux-cored wire"};
+        case Process::gmaw: break;
+    }
+    return {0.8, "EN 1011-1 thermal efficiency factor k for MIG/MAG"};
+}
+
+double arc_energy(const ProcedureSpec& p) { return p.voltage * p.current / p.travel_speed; }
+
+double net_power(const ProcedureSpec& p) {
+    return p.net_power ? *p.net_power : p.arc_efficiency * p.voltage * p.current;
+}
+
+double heat_input(const ProcedureSpec& p) { return net_power(p) / p.travel_speed; }
+
+double equal_leg_for_area(double area, mesh::FaceShape face, double convexity) {
+    const double s = face == mesh::FaceShape::convex ? 1.0 : face == mesh::FaceShape::concave ? -1.0 : 0.0;
+    const double k = 2.0 * std::numbers::sqrt2 / 3.0 * convexity;
+    return -s * k + std::sqrt(k * k + 2.0 * area);
+}
+
+std::optional<Deposition> deposition(const Case& c) {
+    const auto& p = c.procedure;
+    if (!p.wire_feed_speed || p.wire_diameter <= 0) return std::nullopt;
+    const auto& j = c.joint;
+    Deposition d;
+    // Volume of wire fed per second over length welded per second.
+    d.area = std::numbers::pi * p.wire_diameter * p.wire_diameter / 4.0 * *p.wire_feed_speed / p.travel_speed;
+    d.equal_leg = equal_leg_for_area(d.area / j.sides, j.face, j.convexity);
+    d.asked_area = j.sides * mesh::fillet_area(j.leg_flange, j.leg_web, j.face, j.convexity);
+    d.asked_leg = equal_leg_for_area(d.asked_area / j.sides, j.face, j.convexity);
+    d.difference = (d.equal_leg - d.asked_leg) / d.asked_leg;
+    return d;
+}
+
+SourceShape source_from_procedure(const mesh::JointGeometry& j) {
+    // The ellipsoid's origin is where the torch axis meets the bead face; its depth axis points
+    // along the torch into the root. Half-width = half the face width (the chord between toes),
+    // depth = design throat (root to face), front length = half-width and rear length = twice
+    // that, after the proportions Goldak et al. (1984) suggest for a first guess (from memory).
+    // A rule of thumb: calibrate against a macro-section before trusting fusion depths.
+    const double chord = std::hypot(j.leg_flange, j.leg_web);
+    SourceShape s;
+    s.from_procedure = true;
+    s.half_width = chord / 2.0;
+    s.depth = j.leg_flange * j.leg_web / chord;
+    s.front_length = s.half_width;
+    s.rear_length = 2.0 * s.half_width;
+    s.rule = "rule of thumb from the bead size: a = face width/2, b = design throat, c_f = a, c_r = 2a";
+    return s;
+}
+
+double spray_transition_current(double wire_diameter) {
+    // Diameter [mm] → transition current [A] for solid steel wire in argon-rich gas
+    // (common practice, no source; from memory). Linear between points, proportional outside.
+    static constexpr std::array<std::array<double, 2>, 5> table{{
+        {0.8, 150}, {0.9, 165}, {1.0, 185}, {1.2, 220}, {1.6, 275}}};
+    const double d = wire_diameter * 1e3;
+    if (d <= table.front()[0]) return table.front()[1] * d / table.front()[0];
+    if (d >= table.back()[0]) return table.back()[1] * d / table.back()[0];
+    for (std::size_t i = 1; i < table.size(); ++i) {
+        if (d <= table[i][0]) {
+            const double t = (d - table[i - 1][0]) / (table[i][0] - table[i - 1][0]);
+            return table[i - 1][1] + t * (table[i][1] - table[i - 1][1]);
+        }
+    }
+    return table.back()[1];
+}
+
+std::vector<std::string> plausibility_warnings(const Case& c) {
+    std::vector<std::string> w;
+    const auto& p = c.procedure;
+    const double q_kj_mm = heat_input(p) * 1e-6;
+    if (q_kj_mm > 5.0) w.push_back(fmt("heat input %.2f kJ/mm is above 5 kJ/mm: unusual for a fillet pass", q_kj_mm));
+    if (p.travel_speed < 1e-3) w.push_back(fmt("travel speed %.2f mm/s is below 1 mm/s: unusual", p.travel_speed * 1e3));
+    if (c.temperatures.preheat > 300) {
+        w.push_back(fmt("preheat %.0f degC is above 300 degC: unusual; check the steel's tempering limits",
+                        c.temperatures.preheat));
+    }
+    const bool spray_like = p.transfer == Transfer::spray || p.transfer == Transfer::globular;
+    if (p.transfer == Transfer::spray && p.wire_diameter > 0) {
+        const double transition = spray_transition_current(p.wire_diameter);
+        if (p.current < transition) {
+            w.push_back(fmt("spray transfer at %.0f A is below the usual transition current of about %.0f A",
+                            p.current, transition) +
+                        fmt(" for %.1f mm wire; expect globular transfer (common practice, no source)",
+                            p.wire_diameter * 1e3));
+        }
+    }
+    if ((p.transfer == Transfer::spray || p.transfer == Transfer::pulsed_spray) && p.gas &&
+        p.gas->argon + p.gas->helium < 80.0) {
+        w.push_back(fmt("spray transfer with %.0f %% CO2 + O2 in the gas: spray needs an argon-rich gas "
+                        "(about 80 %% argon or more); blends with much CO2 spray poorly (common practice, no source)",
+                        p.gas->co2 + p.gas->oxygen));
+    }
+    if (spray_like && p.position != Position::flat && p.position != Position::horizontal) {
+        w.push_back(std::string("spray and globular transfer work in the flat and horizontal positions only, not ") +
+                    std::string(to_string(p.position)) + " (common practice, no source)");
+    }
+    if (p.transfer == Transfer::short_circuit &&
+        std::max(c.joint.flange_thickness, c.joint.web_thickness) >= 10e-3) {
+        w.push_back("short-circuit transfer on plate 10 mm or thicker risks incomplete fusion into the flange "
+                    "(cold lap); confirm by a macro-etch (common practice, no source)");
+    }
+    if (auto d = deposition(c); d && std::abs(d->difference) > 0.15) {
+        w.push_back(fmt("the wire deposits an equal-leg fillet of %.1f mm, ", d->equal_leg * 1e3) +
+                    fmt("%+.0f %% off the legs asked for; check wire feed speed, travel speed and legs",
+                        d->difference * 100));
+    }
+    return w;
+}
+
+}  // namespace heatbead

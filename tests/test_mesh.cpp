@@ -1,0 +1,414 @@
+// Tests of mesh/: joint geometry, graded spacings and the tagged grid. Each check names its source:
+// a hand computation or a textbook formula.
+#include <catch2/catch.hpp>
+
+#include <algorithm>
+#include <cmath>
+#include <cstddef>
+#include <functional>
+#include <iterator>
+#include <stdexcept>
+#include <vector>
+
+#include "mesh/grading.hpp"
+#include "mesh/grid.hpp"
+#include "mesh/joint.hpp"
+
+using namespace heatbead::mesh;
+
+namespace {
+
+constexpr double mm = 1e-3;
+constexpr double mm2 = mm * mm;
+// Allowance for rounding in sums and ratios of doubles.
+constexpr double rounding = 1e-9;
+
+// Flange 100 × 10 mm, web 8 × 50 mm centred on the flange, 100 mm weld, 8 mm flange leg and 6 mm web leg.
+JointGeometry sample_joint() {
+    return {.flange_thickness = 10 * mm,
+            .flange_width = 100 * mm,
+            .web_thickness = 8 * mm,
+            .web_height = 50 * mm,
+            .weld_length = 100 * mm,
+            .leg_flange = 8 * mm,
+            .leg_web = 6 * mm};
+}
+
+JointGeometry with_face(JointGeometry joint, FaceShape face, double convexity) {
+    joint.face = face;
+    joint.convexity = convexity;
+    return joint;
+}
+
+GridSettings settings_with_finest(double finest) {
+    return {.cross_section = {.finest = finest, .coarsest = 4 * mm, .growth = 1.2},
+            .refine_margin = 2 * mm,
+            .along_weld = 5 * mm};
+}
+
+double cell_area(const Grid& grid, std::size_t j, std::size_t k) { return grid.y.width(j) * grid.z.width(k); }
+
+// Cross-section area of the cells carrying `tag` and passing `where(y, z)` at their centre.
+template <typename Where>
+double tagged_area(const Grid& grid, Tag tag, Where where) {
+    double area = 0.0;
+    for (std::size_t k = 0; k < grid.z.cells(); ++k)
+        for (std::size_t j = 0; j < grid.y.cells(); ++j)
+            if (grid.tag(j, k) == tag && where(grid.y.centre(j), grid.z.centre(k))) area += cell_area(grid, j, k);
+    return area;
+}
+
+double tagged_area(const Grid& grid, Tag tag) {
+    return tagged_area(grid, tag, [](double, double) { return true; });
+}
+
+// Area of the cells the bead outline passes through: their corners (pulled a hair inside the cell, so that
+// plate surfaces on cell faces do not count) disagree about being in the bead. A centre-sampled cell can only
+// be mis-tagged if the outline passes through it, so this bounds the staircase error.
+double cut_cell_area(const Grid& grid, const JointGeometry& joint) {
+    double area = 0.0;
+    for (std::size_t k = 0; k < grid.z.cells(); ++k)
+        for (std::size_t j = 0; j < grid.y.cells(); ++j) {
+            const double dy = grid.y.width(j) * (0.5 - rounding);
+            const double dz = grid.z.width(k) * (0.5 - rounding);
+            const double yc = grid.y.centre(j);
+            const double zc = grid.z.centre(k);
+            const int inside = inside_bead(joint, yc - dy, zc - dz) + inside_bead(joint, yc + dy, zc - dz) +
+                               inside_bead(joint, yc - dy, zc + dz) + inside_bead(joint, yc + dy, zc + dz);
+            if (inside != 0 && inside != 4) area += cell_area(grid, j, k);
+        }
+    return area;
+}
+
+bool contains(const std::vector<double>& faces, double value) {
+    return std::find(faces.begin(), faces.end(), value) != faces.end();
+}
+
+// Largest neighbour ratio of the cells between consecutive breakpoints, over all such intervals.
+double max_ratio_between(const std::vector<double>& faces, std::vector<double> breakpoints) {
+    breakpoints.push_back(faces.front());
+    breakpoints.push_back(faces.back());
+    std::sort(breakpoints.begin(), breakpoints.end());
+    double ratio = 1.0;
+    for (std::size_t b = 0; b + 1 < breakpoints.size(); ++b) {
+        const auto first = std::find(faces.begin(), faces.end(), breakpoints[b]);
+        const auto last = std::find(faces.begin(), faces.end(), breakpoints[b + 1]);
+        Axis piece{std::vector<double>(first, std::next(last))};
+        ratio = std::max(ratio, piece.max_ratio());
+    }
+    return ratio;
+}
+
+struct GradingCase {
+    double lo, hi, fine_lo, fine_hi;
+    Spacing spacing;
+    std::vector<double> must_hit;
+};
+
+}  // namespace
+
+// ---------------------------------------------------------------------------------------------- joint
+
+TEST_CASE("fillet_area matches hand values for flat, convex and concave faces", "[mesh]") {
+    // Hand computation: triangle l_f·l_w/2 plus or minus a parabolic segment (2/3)·chord·height.
+    CHECK(fillet_area(8 * mm, 8 * mm, FaceShape::flat, 0.0) == Approx(32 * mm2));
+    // Chord sqrt(8² + 8²) = 11.3137 mm: 32 + (2/3)·11.3137·1 = 39.5425 mm².
+    CHECK(fillet_area(8 * mm, 8 * mm, FaceShape::convex, 1 * mm) == Approx(39.5425 * mm2).epsilon(1e-5));
+    // Chord sqrt(8² + 6²) = 10 mm: 24 - (2/3)·10·0.5 = 20.6667 mm².
+    CHECK(fillet_area(8 * mm, 6 * mm, FaceShape::concave, 0.5 * mm) == Approx(20.66667 * mm2).epsilon(1e-6));
+    // A flat face ignores the convexity value.
+    CHECK(fillet_area(8 * mm, 6 * mm, FaceShape::flat, 1 * mm) == Approx(24 * mm2));
+}
+
+TEST_CASE("max_convexity keeps the face between the toes", "[mesh]") {
+    // Hand computation of c_max = |d|·min(l_f/l_w, l_w/l_f)/4: 8 × 8 mm gives 11.3137/4 = 2.8284 mm,
+    // 8 × 6 mm gives 10·0.75/4 = 1.875 mm.
+    CHECK(max_convexity(8 * mm, 8 * mm) == Approx(2.828427 * mm).epsilon(1e-6));
+    CHECK(max_convexity(8 * mm, 6 * mm) == Approx(1.875 * mm));
+    CHECK(max_convexity(6 * mm, 8 * mm) == Approx(1.875 * mm));
+}
+
+TEST_CASE("inside_bead follows the chord and the parabolic face", "[mesh]") {
+    JointGeometry joint = sample_joint();
+    joint.leg_web = 8 * mm;
+    // Hand computation: web face y_w = 4 mm, chord from (12, 0) to (4, 8) mm, midpoint (8, 4) mm, outward
+    // normal (1, 1)/sqrt(2). Points 0.5 mm outside and inside the chord's midpoint along that normal:
+    const double step = 0.5 * mm / std::sqrt(2.0);
+    const double out_y = 8 * mm + step, out_z = 4 * mm + step;
+    const double in_y = 8 * mm - step, in_z = 4 * mm - step;
+
+    const JointGeometry flat = joint;
+    const JointGeometry convex = with_face(joint, FaceShape::convex, 1 * mm);
+    const JointGeometry concave = with_face(joint, FaceShape::concave, 1 * mm);
+    CHECK_FALSE(inside_bead(flat, out_y, out_z));
+    CHECK(inside_bead(convex, out_y, out_z));  // face bulges 1 mm > 0.5 mm out at the midpoint
+    CHECK_FALSE(inside_bead(concave, out_y, out_z));
+    CHECK(inside_bead(flat, in_y, in_z));
+    CHECK(inside_bead(convex, in_y, in_z));
+    CHECK_FALSE(inside_bead(concave, in_y, in_z));  // face sags 1 mm > 0.5 mm in at the midpoint
+
+    // Hand computation: the convex face passes exactly c = 1 mm out of the chord's midpoint.
+    const double normal = 1 * mm / std::sqrt(2.0);
+    CHECK(inside_bead(convex, 8 * mm + 0.99 * normal, 4 * mm + 0.99 * normal));
+    CHECK_FALSE(inside_bead(convex, 8 * mm + 1.01 * normal, 4 * mm + 1.01 * normal));
+
+    // Hand computation for the flat face a/l_f + z/l_w <= 1 with a = y - y_w: near the toes and the root.
+    CHECK(inside_bead(flat, (4 + 7.9) * mm, 0.05 * mm));   // 7.9/8 + 0.05/8 = 0.994
+    CHECK_FALSE(inside_bead(flat, (4 + 7.9) * mm, 0.2 * mm));  // 7.9/8 + 0.2/8 = 1.0125
+    CHECK(inside_bead(flat, 4.1 * mm, 7.8 * mm));          // 0.1/8 + 7.8/8 = 0.9875
+    CHECK(inside_bead(flat, 4.1 * mm, 0.1 * mm));
+    // Below the flange top, inside the web, or on the side without a bead: not bead.
+    CHECK_FALSE(inside_bead(flat, 6 * mm, -0.1 * mm));
+    CHECK_FALSE(inside_bead(flat, 3.9 * mm, 1 * mm));
+    CHECK_FALSE(inside_bead(flat, -6 * mm, 1 * mm));
+}
+
+TEST_CASE("material_at tells flange, web, weld and void apart", "[mesh]") {
+    const JointGeometry joint = sample_joint();
+    // Hand computation from the sample joint's dimensions (web faces at y = ±4 mm, flange top z = 0).
+    CHECK(material_at(joint, 40 * mm, -5 * mm) == Tag::flange);
+    CHECK(material_at(joint, 0, 30 * mm) == Tag::web);
+    CHECK(material_at(joint, 6 * mm, 1 * mm) == Tag::weld);
+    CHECK(material_at(joint, 30 * mm, 1 * mm) == Tag::empty);   // above the flange, beyond the bead
+    CHECK(material_at(joint, -6 * mm, 1 * mm) == Tag::empty);   // one-sided: nothing on side -1
+    CHECK(material_at(joint, 0, 51 * mm) == Tag::empty);        // above the web
+    CHECK(material_at(joint, 60 * mm, -5 * mm) == Tag::empty);  // beyond the flange edge
+}
+
+TEST_CASE("validate rejects inconsistent joints", "[mesh]") {
+    const JointGeometry good = sample_joint();
+    CHECK_NOTHROW(validate(good));
+
+    JointGeometry joint = with_face(good, FaceShape::convex, 1.9 * mm);  // hand computation: c_max = 1.875 mm
+    CHECK_THROWS_AS(validate(joint), std::invalid_argument);
+    joint = with_face(good, FaceShape::concave, 1.8 * mm);
+    CHECK_NOTHROW(validate(joint));
+
+    joint = good;
+    joint.web_offset = 40 * mm;  // bead reaches 40 + 4 + 8 = 52 mm > W/2 = 50 mm
+    CHECK_THROWS_AS(validate(joint), std::invalid_argument);
+    joint = good;
+    joint.root_gap = 6 * mm;  // web leg 6 mm does not reach past the gap
+    CHECK_THROWS_AS(validate(joint), std::invalid_argument);
+    joint = good;
+    joint.sides = 3;
+    CHECK_THROWS_AS(validate(joint), std::invalid_argument);
+    joint = good;
+    joint.flange_thickness = 0;
+    CHECK_THROWS_AS(validate(joint), std::invalid_argument);
+    CHECK_THROWS_AS(good.web_face(0), std::invalid_argument);
+}
+
+// -------------------------------------------------------------------------------------------- grading
+
+TEST_CASE("graded_faces: exact ends and breakpoints, monotone, bounded sizes and ratios", "[mesh]") {
+    const GradingCase grading_case = GENERATE(
+        // Fine zone across a web-like pair of breakpoints in the middle of a wide range.
+        GradingCase{-50 * mm, 50 * mm, -6 * mm, 16 * mm, {0.1 * mm, 4 * mm, 1.2}, {-4 * mm, 4 * mm}},
+        // Fine zone at one end, breakpoints inside and beyond it.
+        GradingCase{0, 60 * mm, 0, 10 * mm, {0.1 * mm, 5 * mm, 1.1}, {10 * mm, 20 * mm}},
+        // A single fine point, no breakpoints.
+        GradingCase{0, 1, 0.5, 0.5, {0.01, 0.1, 1.15}, {}},
+        // Breakpoints closer together than a cell, and one on an end.
+        GradingCase{0, 1, 0.2, 0.3, {0.01, 0.1, 1.2}, {0.25, 0.2501, 0.7, 1.0}},
+        // Fine interval outside the range: grading starts part way up.
+        GradingCase{0, 1, -0.2, -0.1, {0.01, 0.2, 1.2}, {0.5}});
+    const Spacing& spacing = grading_case.spacing;
+    const std::vector<double> faces = graded_faces(grading_case.lo, grading_case.hi, grading_case.fine_lo,
+                                                   grading_case.fine_hi, spacing, grading_case.must_hit);
+    // The definition of the grid the function promises.
+    CHECK(faces.front() == grading_case.lo);
+    CHECK(faces.back() == grading_case.hi);
+    CHECK(std::adjacent_find(faces.begin(), faces.end(), std::greater_equal<>()) == faces.end());
+    for (const double p : grading_case.must_hit) CHECK(contains(faces, p));
+
+    const Axis axis{faces};
+    CHECK(axis.max_width() <= spacing.coarsest * (1 + rounding));
+    CHECK(max_ratio_between(faces, grading_case.must_hit) <= spacing.growth * (1 + rounding));
+    for (std::size_t i = 0; i < axis.cells(); ++i)
+        if (faces[i] >= grading_case.fine_lo && faces[i + 1] <= grading_case.fine_hi)
+            CHECK(axis.width(i) <= spacing.finest * (1 + rounding));
+}
+
+TEST_CASE("graded_faces is uniform when finest equals coarsest", "[mesh]") {
+    // Hand computation: 10 mm in 1 mm cells, breakpoints on whole millimetres.
+    const std::vector<double> faces = graded_faces(0, 10 * mm, 2 * mm, 3 * mm, {1 * mm, 1 * mm, 1.2}, {4 * mm});
+    REQUIRE(faces.size() == 11);
+    for (std::size_t i = 0; i < faces.size(); ++i) CHECK(faces[i] == Approx(static_cast<double>(i) * mm));
+
+    // Growth 1 keeps the finest size everywhere, whatever the coarsest.
+    const std::vector<double> no_growth = graded_faces(0, 1, 0, 0, {0.1, 0.5, 1.0}, {});
+    CHECK(no_growth.size() == 11);
+    CHECK(Axis{no_growth}.max_ratio() == Approx(1.0));
+}
+
+TEST_CASE("graded_faces cell count follows the integral of 1/h", "[mesh]") {
+    // Hand computation for h(s) = min(h0 + ln(r)·s, h1) on [0, 1] with h0 = 1 mm, h1 = 50 mm, r = 1.2:
+    // h reaches h1 at D = (h1 - h0)/ln r = 0.26875 m; ∫ ds/h = ln(h1/h0)/ln r + (1 - D)/h1 = 21.457 + 14.625
+    // = 36.08, so 37 cells.
+    const double h0 = 1e-3, h1 = 0.05, r = 1.2;
+    const double reach = (h1 - h0) / std::log(r);
+    const double integral = std::log(h1 / h0) / std::log(r) + (1 - reach) / h1;
+    REQUIRE(integral == Approx(36.08).epsilon(1e-3));
+    const Axis axis{graded_faces(0, 1, 0, 0, {h0, h1, r}, {})};
+    CHECK(axis.cells() == 37);
+    // Every cell spans Δ = I/n of its local size: the first is h0·(r^Δ - 1)/ln r, the last h1·Δ.
+    const double delta = integral / 37;
+    CHECK(axis.width(0) == Approx(h0 * (std::pow(r, delta) - 1) / std::log(r)).epsilon(1e-9));
+    CHECK(axis.width(axis.cells() - 1) == Approx(h1 * delta).epsilon(1e-9));
+    // Neighbours in the growing part differ by exactly r^Δ (<= r).
+    CHECK(axis.width(1) / axis.width(0) == Approx(std::pow(r, delta)).epsilon(1e-9));
+}
+
+TEST_CASE("graded_faces rejects bad arguments", "[mesh]") {
+    const Spacing spacing{0.01, 0.1, 1.2};
+    CHECK_THROWS_AS(graded_faces(1, 0, 0, 0, spacing, {}), std::invalid_argument);
+    CHECK_THROWS_AS(graded_faces(0, 1, 0.6, 0.5, spacing, {}), std::invalid_argument);
+    CHECK_THROWS_AS(graded_faces(0, 1, 0, 0, {0, 0.1, 1.2}, {}), std::invalid_argument);
+    CHECK_THROWS_AS(graded_faces(0, 1, 0, 0, {0.1, 0.01, 1.2}, {}), std::invalid_argument);
+    CHECK_THROWS_AS(graded_faces(0, 1, 0, 0, {0.01, 0.1, 0.9}, {}), std::invalid_argument);
+    CHECK_THROWS_AS(graded_faces(0, 1, 0, 0, spacing, {1.5}), std::invalid_argument);
+}
+
+// ----------------------------------------------------------------------------------------------- grid
+
+TEST_CASE("refine_box and section_bounds from the joint dimensions", "[mesh]") {
+    JointGeometry joint = sample_joint();
+    // Hand computation: bead y in [4, 12] mm, z in [0, 6] mm, grown by 2 mm.
+    SectionBox box = refine_box(joint, 2 * mm);
+    CHECK(box.y_lo == Approx(2 * mm));
+    CHECK(box.y_hi == Approx(14 * mm));
+    CHECK(box.z_lo == Approx(-2 * mm));
+    CHECK(box.z_hi == Approx(8 * mm));
+    joint.sides = 2;
+    box = refine_box(joint, 2 * mm);
+    CHECK(box.y_lo == Approx(-14 * mm));
+    CHECK(box.y_hi == Approx(14 * mm));
+    // A huge margin is clipped to the body, y in [-50, 50] mm, z in [-10, 50] mm.
+    box = refine_box(joint, 1.0);
+    const SectionBox body = section_bounds(joint);
+    CHECK(box.y_lo == body.y_lo);
+    CHECK(box.y_hi == body.y_hi);
+    CHECK(box.z_lo == body.z_lo);
+    CHECK(box.z_hi == body.z_hi);
+    CHECK(body.y_lo == Approx(-50 * mm));
+    CHECK(body.z_lo == Approx(-10 * mm));
+    CHECK(body.z_hi == Approx(50 * mm));
+}
+
+TEST_CASE("build_grid: plates land on cell faces, so their tagged areas are exact", "[mesh]") {
+    const JointGeometry joint = sample_joint();
+    const Grid grid = build_grid(joint, settings_with_finest(0.25 * mm));
+    // Hand computation: flange 10 × 100 mm = 1000 mm², web 8 × 50 mm = 400 mm².
+    CHECK(tagged_area(grid, Tag::flange) == Approx(1000 * mm2).epsilon(1e-12));
+    CHECK(tagged_area(grid, Tag::web) == Approx(400 * mm2).epsilon(1e-12));
+    for (const double face : {-4 * mm, 4 * mm}) CHECK(contains(grid.y.faces, face));
+    CHECK(contains(grid.z.faces, 0.0));
+    CHECK(grid.y.faces.front() == -50 * mm);
+    CHECK(grid.z.faces.back() == 50 * mm);
+    // Fine spacing inside the refine box, coarse far from it.
+    CHECK(grid.y.min_width() <= 0.25 * mm * (1 + rounding));
+    CHECK(grid.y.max_width() > 2 * mm);
+}
+
+TEST_CASE("build_grid: uniform along the weld and consistent cell counts", "[mesh]") {
+    const JointGeometry joint = sample_joint();
+    GridSettings settings = settings_with_finest(0.5 * mm);
+    settings.along_weld = 3 * mm;
+    const Grid grid = build_grid(joint, settings);
+    // Hand computation: 100 mm / 3 mm = 33.3, so 34 cells of 100/34 mm.
+    REQUIRE(grid.x.cells() == 34);
+    CHECK(grid.x.min_width() == Approx(100.0 / 34 * mm));
+    CHECK(grid.x.max_width() == Approx(100.0 / 34 * mm));
+    CHECK(grid.x.faces.back() == 100 * mm);
+
+    const std::size_t ny = grid.y.cells(), nz = grid.z.cells();
+    REQUIRE(grid.section_tags.size() == ny * nz);
+    CHECK(grid.cells() == 34 * ny * nz);
+    const auto count = [&](Tag t) {
+        return static_cast<std::size_t>(std::count(grid.section_tags.begin(), grid.section_tags.end(), t));
+    };
+    CHECK(grid.weld_cells() == 34 * count(Tag::weld));
+    CHECK(grid.solid_cells() == 34 * (count(Tag::flange) + count(Tag::web) + count(Tag::weld)));
+    CHECK(grid.weld_cells() > 0);
+}
+
+TEST_CASE("build_grid: the tagged bead area converges to fillet_area", "[mesh]") {
+    const JointGeometry joint = GENERATE(with_face(sample_joint(), FaceShape::flat, 0),
+                                         with_face(sample_joint(), FaceShape::convex, 1 * mm),
+                                         with_face(sample_joint(), FaceShape::concave, 1 * mm));
+    const double exact = fillet_area(joint.leg_flange, joint.leg_web, joint.face, joint.convexity);
+
+    // Formula: a staircase that samples cell centres errs only in cells the outline passes through, whose
+    // area shrinks in proportion to the spacing (outline length × spacing).
+    double previous_cut_area = 0.0;
+    for (const double finest : {0.2 * mm, 0.1 * mm, 0.05 * mm}) {
+        const Grid grid = build_grid(joint, settings_with_finest(finest));
+        const double error = std::abs(tagged_area(grid, Tag::weld) - exact);
+        const double cut_area = cut_cell_area(grid, joint);
+        CHECK(error <= cut_area);
+        if (previous_cut_area > 0.0) CHECK(cut_area < 0.6 * previous_cut_area);
+        if (finest == 0.1 * mm) CHECK(error < 0.02 * exact);
+        previous_cut_area = cut_area;
+    }
+}
+
+TEST_CASE("build_grid: a root gap leaves a void slot under the web", "[mesh]") {
+    JointGeometry joint = sample_joint();
+    joint.root_gap = 1 * mm;
+    const Grid grid = build_grid(joint, settings_with_finest(0.1 * mm));
+    CHECK(contains(grid.z.faces, 1 * mm));
+    const auto under_web = [](double y, double z) { return std::abs(y) < 4 * mm && z > 0 && z < 1 * mm; };
+    // Hand computation: the slot is t_w × g = 8 × 1 mm = 8 mm², all of it void; the web keeps its 400 mm²
+    // and now ends at z = g + H = 51 mm.
+    CHECK(tagged_area(grid, Tag::empty, under_web) == Approx(8 * mm2).epsilon(1e-12));
+    CHECK(tagged_area(grid, Tag::web) == Approx(400 * mm2).epsilon(1e-12));
+    CHECK(grid.z.faces.back() == Approx(51 * mm));
+    // The bead still fills the corner beside the slot, from the flange top up.
+    CHECK(material_at(joint, 4.05 * mm, 0.5 * mm) == Tag::weld);
+    CHECK(material_at(joint, 3.95 * mm, 0.5 * mm) == Tag::empty);
+}
+
+TEST_CASE("build_grid: two sides give two beads mirrored about the web centre", "[mesh]") {
+    JointGeometry joint = with_face(sample_joint(), FaceShape::convex, 1 * mm);
+    joint.sides = 2;
+    joint.web_offset = 3 * mm;
+    // Hand computation: mirroring y -> 2·y0 - y maps the joint onto itself where the flange is wide enough
+    // on both sides (|y - y0| < W/2 - y0 = 47 mm).
+    for (double dy = -46 * mm; dy <= 46 * mm; dy += 0.37 * mm)
+        for (double z = -9 * mm; z <= 49 * mm; z += 0.41 * mm)
+            REQUIRE(material_at(joint, 3 * mm + dy, z) == material_at(joint, 3 * mm - dy, z));
+
+    const Grid grid = build_grid(joint, settings_with_finest(0.1 * mm));
+    const double each = fillet_area(joint.leg_flange, joint.leg_web, joint.face, joint.convexity);
+    const auto right = [](double y, double) { return y > 3 * mm; };
+    const auto left = [](double y, double) { return y < 3 * mm; };
+    CHECK(tagged_area(grid, Tag::weld, right) == Approx(each).epsilon(0.02));
+    CHECK(tagged_area(grid, Tag::weld, left) == Approx(each).epsilon(0.02));
+}
+
+TEST_CASE("build_grid: a web offset shifts the web and the bead", "[mesh]") {
+    const JointGeometry centred = sample_joint();
+    JointGeometry shifted = centred;
+    shifted.web_offset = 5 * mm;
+    // Hand computation: every point of the centred joint's bead and web moves 5 mm in y.
+    for (double y = -20 * mm; y <= 20 * mm; y += 0.29 * mm)
+        for (double z = 0; z <= 12 * mm; z += 0.31 * mm)
+            REQUIRE(material_at(shifted, y + 5 * mm, z) == material_at(centred, y, z));
+
+    const Grid grid = build_grid(shifted, settings_with_finest(0.1 * mm));
+    CHECK(contains(grid.y.faces, 1 * mm));
+    CHECK(contains(grid.y.faces, 9 * mm));
+    CHECK(tagged_area(grid, Tag::web) == Approx(400 * mm2).epsilon(1e-12));
+    // The bead lies in y in [9, 17] mm.
+    const auto outside_bead_span = [](double y, double) { return y < 9 * mm || y > 17 * mm; };
+    CHECK(tagged_area(grid, Tag::weld, outside_bead_span) == 0.0);
+    CHECK(tagged_area(grid, Tag::weld) == Approx(24 * mm2).epsilon(0.02));
+}
+
+TEST_CASE("build_grid refuses cross-sections that are too fine", "[mesh]") {
+    CHECK_THROWS_AS(build_grid(sample_joint(), settings_with_finest(0.002 * mm)), std::invalid_argument);
+    GridSettings settings = settings_with_finest(0.1 * mm);
+    settings.along_weld = 0;
+    CHECK_THROWS_AS(build_grid(sample_joint(), settings), std::invalid_argument);
+}

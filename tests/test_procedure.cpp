@@ -1,0 +1,104 @@
+// Derived procedure quantities against hand computations from their definitions, and the
+// EN 1993-1-2 steel properties against values computed by hand from the standard's formulas.
+#include "solver/case_reader.hpp"
+#include "solver/procedure.hpp"
+#include "solver/steel_en1993.hpp"
+
+#include <catch2/catch.hpp>
+
+#include <cmath>
+#include <numbers>
+
+using namespace heatbead;
+
+namespace {
+const std::string minimal = std::string(HEATBEAD_SOURCE_DIR) + "/tests/cases/minimal.toml";
+
+Case with(std::vector<std::string> sets) {
+    std::vector<Override> o;
+    for (const auto& s : sets) o.push_back(parse_override(s));
+    return read_case(minimal, o).value;
+}
+
+bool warns(const Case& c, const std::string& text) {
+    for (const auto& w : c.warnings) {
+        if (w.find(text) != std::string::npos) return true;
+    }
+    return false;
+}
+}  // namespace
+
+TEST_CASE("heat input follows the EN 1011-1 definition", "[procedure]") {
+    // EN 1011-1: Q = k·U·I/v. Hand computation (shared REFERENCES check value 1):
+    // k = 0.8, U = 28 V, I = 250 A, v = 5 mm/s → 0.8·28·250/5 = 1120 J/mm = 1.12 kJ/mm.
+    const Case c = with({"procedure.voltage=28", "procedure.current=250", "procedure.travel_speed=5"});
+    CHECK(c.procedure.arc_efficiency == 0.8);  // EN 1011-1 factor for MIG/MAG
+    CHECK(heat_input(c.procedure) * 1e-6 == Approx(1.12).epsilon(1e-12));
+    CHECK(arc_energy(c.procedure) * 1e-6 == Approx(1.40).epsilon(1e-12));
+    // Submerged arc: k = 1.0 (EN 1011-1), so heat input equals arc energy.
+    ProcedureSpec saw = c.procedure;
+    saw.process = Process::saw;
+    saw.arc_efficiency = default_arc_efficiency(Process::saw).value;
+    CHECK(heat_input(saw) * 1e-6 == Approx(1.40).epsilon(1e-12));
+    CHECK(default_arc_efficiency(Process::smaw).value == 0.8);
+    // A given net power replaces k·U·I.
+    const Case given = with({"procedure.net_power=3 kW", "procedure.travel_speed=6"});
+    CHECK(heat_input(given.procedure) * 1e-6 == Approx(0.5).epsilon(1e-12));
+}
+
+TEST_CASE("deposited area and the fillet it fills", "[procedure]") {
+    // Hand computation (common practice, no source): area per length = (π d²/4)·WFS/v.
+    // d = 1.2 mm, WFS = 9 m/min = 150 mm/s, v = 6 mm/s → π·0.36·150/6 = 28.274 mm²;
+    // equal-leg flat fillet l²/2 = A → l = √(2A) = 7.520 mm.
+    const Case c = with({"procedure.wire_diameter=1.2", "procedure.wire_feed=9", "procedure.travel_speed=6",
+                         "bead.leg_flange=7.5"});
+    const auto d = deposition(c);
+    REQUIRE(d);
+    CHECK(d->area * 1e6 == Approx(std::numbers::pi * 0.36 * 150 / 6).epsilon(1e-12));
+    CHECK(d->equal_leg * 1e3 == Approx(7.5199).epsilon(1e-4));
+    CHECK(d->asked_leg * 1e3 == Approx(7.5).epsilon(1e-12));
+    CHECK_FALSE(warns(c, "equal-leg fillet"));
+    // A convex face: A = l²/2 + (2√2/3)·l·c; for l = 8 mm, c = 1 mm: 32 + 7.5425 = 39.5425 mm².
+    CHECK(equal_leg_for_area(39.5425e-6, mesh::FaceShape::convex, 1e-3) * 1e3 == Approx(8.0).epsilon(1e-5));
+    CHECK(equal_leg_for_area(32e-6 - 7.5425e-6, mesh::FaceShape::concave, 1e-3) * 1e3 == Approx(8.0).epsilon(1e-5));
+    // Legs 25 % off what the wire can fill are flagged (threshold 15 %).
+    const Case off = with({"procedure.wire_diameter=1.2", "procedure.wire_feed=9", "procedure.travel_speed=6",
+                           "bead.leg_flange=10"});
+    CHECK(warns(off, "equal-leg fillet of 7.5 mm"));
+}
+
+TEST_CASE("unusual procedures give warnings, not errors", "[procedure]") {
+    // Thresholds from the project's rules for check: 5 kJ/mm, 1 mm/s, 300 degC.
+    CHECK(warns(with({"procedure.current=600", "procedure.voltage=40", "procedure.travel_speed=3"}),
+                "above 5 kJ/mm"));
+    CHECK(warns(with({"procedure.travel_speed=0.5"}), "below 1 mm/s"));
+    CHECK(warns(with({"temperatures.preheat=350"}), "above 300 degC"));
+    // Spray plausibility (common practice, no source).
+    const std::string spray = "procedure.transfer=spray";
+    CHECK(warns(with({spray, "procedure.current=160", "procedure.wire_diameter=1.2"}), "transition current"));
+    CHECK_FALSE(warns(with({spray, "procedure.current=280", "procedure.wire_diameter=1.2"}), "transition current"));
+    CHECK(warns(with({spray, "procedure.current=280", "procedure.shielding_gas.argon=75",
+                      "procedure.shielding_gas.co2=25"}),
+                "argon-rich"));
+    CHECK(warns(with({spray, "procedure.current=280", "procedure.position=vertical_up"}), "flat and horizontal"));
+    CHECK(warns(with({"joint.flange_thickness=12"}), "cold lap"));  // short-circuit on 12 mm plate
+}
+
+TEST_CASE("spray transition current rises with wire diameter", "[procedure]") {
+    // Common practice, no source (values from memory): about 220 A for 1.2 mm solid steel wire.
+    CHECK(spray_transition_current(1.2e-3) == Approx(220));
+    CHECK(spray_transition_current(1.0e-3) < spray_transition_current(1.2e-3));
+    CHECK(spray_transition_current(1.6e-3) > spray_transition_current(1.2e-3));
+}
+
+TEST_CASE("EN 1993-1-2 carbon steel properties", "[material]") {
+    // Hand-computed from EN 1993-1-2:2005 §3.4.1 (shared REFERENCES check value 9).
+    CHECK(en1993::conductivity(400) == Approx(40.68).epsilon(1e-9));
+    CHECK(en1993::conductivity(900) == Approx(27.3));
+    CHECK(en1993::specific_heat(20) == Approx(439.8).margin(0.05));
+    CHECK(en1993::specific_heat(600) == Approx(760.2).margin(0.05));
+    CHECK(en1993::specific_heat(700) == Approx(1008.2).margin(0.05));
+    CHECK(en1993::specific_heat(735) == Approx(5000).margin(0.05));
+    CHECK(en1993::specific_heat(900) == Approx(650.4).margin(0.05));
+    CHECK(en1993::specific_heat(1000) == Approx(650));
+}
