@@ -21,7 +21,12 @@ struct Composition {
 
 struct MaterialSpec {
     std::string grade;                       // free text, for reports only
-    std::string properties;                  // property model by name
+    std::string properties;                  // "carbon_steel_en1993", or a property table file
+    std::string properties_file;             // the table's path (relative to the case resolved), if any
+    double density = 7850;                   // kg/m³ (tables only; EN 1993-1-2 for the built-in)
+    double solidus = 1495, liquidus = 1540;  // °C
+    double latent_heat = 277e3;              // J/kg
+    double liquid_conductivity_factor = 1;   // k multiplier above liquidus (stand-in for pool stirring)
     std::optional<Composition> composition;  // needed by metallurgy outputs only
     std::optional<double> diffusible_hydrogen;  // ml/100 g deposited metal (filler only)
 };
@@ -50,6 +55,7 @@ struct ProcedureSpec {
     double arc_efficiency = 0;         // net / electrical power
     std::string arc_efficiency_source; // where the value comes from
     std::optional<double> net_power;   // W, when given instead of efficiency x U x I
+    std::optional<double> interpass_wait;  // s between the passes of a two-sided joint
 };
 
 // Goldak double-ellipsoid dimensions (Goldak, Chakravarti & Bibby 1984), in metres.
@@ -70,7 +76,9 @@ struct SurfaceSpec {
 };
 
 struct SolverSpec {
-    std::string integrator = "explicit";
+    std::string integrator = "rkl2";
+    double max_temperature_change = 500;  // K per step (twice this rejects the step)
+    double travel_per_step = 0.25;        // arc travel per step / smallest source semi-axis
     double time_limit = 600;       // s
     double stop_temperature = 300; // degC
 };

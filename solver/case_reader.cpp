@@ -2,12 +2,14 @@
 // cases/README.md documents the same keys for users; keep the two in step.
 #include "solver/case_reader.hpp"
 
+#include "solver/integrators.hpp"
 #include "solver/procedure.hpp"
 #include "solver/run_estimate.hpp"
 
 #include <array>
 #include <cmath>
 #include <cstdio>
+#include <filesystem>
 #include <stdexcept>
 #include <unistd.h>
 
@@ -25,9 +27,7 @@ constexpr std::array<std::string_view, 4> transfer_names{"short_circuit", "globu
 constexpr std::array<std::string_view, 5> position_names{"flat", "horizontal", "vertical_up", "vertical_down",
                                                          "overhead"};
 constexpr std::array<std::string_view, 3> face_names{"flat", "convex", "concave"};
-constexpr std::array<std::string_view, 1> property_models{"carbon_steel_en1993"};
 constexpr std::array<std::string_view, 2> source_shapes{"from_procedure", "given"};
-constexpr std::array<std::string_view, 1> integrators{"explicit"};
 constexpr std::array<std::string_view, 4> output_files{"hdf5", "vtk", "summary", "report"};
 
 template <class Enum, std::size_t N>
@@ -112,11 +112,34 @@ std::optional<Composition> read_composition(Section& parent) {
     return comp;
 }
 
+constexpr std::string_view builtin_steel = "carbon_steel_en1993";
+
+// Thermal model of the base metal: the built-in steel or a table file, melting range and latent heat.
+void read_thermal_properties(Section& s, MaterialSpec& m, const std::string& case_path) {
+    m.properties = s.text("properties", builtin_steel);
+    if (m.properties != builtin_steel) {
+        const std::filesystem::path table(m.properties);
+        m.properties_file = (table.is_relative() ? std::filesystem::path(case_path).parent_path() / table : table).string();
+        if (!std::filesystem::is_regular_file(m.properties_file)) {
+            s.error("properties", "neither \"" + std::string(builtin_steel) + "\" nor a readable property table file (" +
+                                      m.properties_file + ")");
+        }
+        m.density = s.number("density", std::nullopt, Bounds{0, 30000, true, false});
+    } else {
+        m.density = s.number("density", 7850.0, Bounds::closed(7850, 7850));
+    }
+    m.solidus = s.quantity("solidus", Dimension::temperature, "degC", 1495.0, Bounds::closed(500, 3000));
+    m.liquidus = s.quantity("liquidus", Dimension::temperature, "degC", m.solidus + 45, Bounds::closed(500, 3000));
+    if (m.liquidus <= m.solidus) s.error("liquidus", "must be above the solidus");
+    m.latent_heat = s.quantity("latent_heat", Dimension::specific_energy, "kJ/kg", 277e3, Bounds::closed(0, 2e6));
+    m.liquid_conductivity_factor = s.number("liquid_conductivity_factor", 1.0, Bounds::closed(1, 10));
+}
+
 MaterialSpec read_material(CaseDocument& doc, std::string_view section, bool filler) {
     auto s = doc.section(section, false);
     MaterialSpec m;
     m.grade = s.text("grade", "unspecified");
-    if (!filler) m.properties = s.choice("properties", property_models, property_models[0]);
+    if (!filler) read_thermal_properties(s, m, doc.path());
     m.composition = read_composition(s);
     if (filler) {
         m.diffusible_hydrogen =
@@ -180,6 +203,10 @@ void read_procedure(Case& c, CaseDocument& doc) {
         p.arc_efficiency_source = std::string(fallback.source);
     }
     p.net_power = s.optional_quantity("net_power", Dimension::power, "W", Bounds::positive());
+    p.interpass_wait = s.optional_quantity("interpass_wait", Dimension::time, "s", Bounds::non_negative());
+    if (p.interpass_wait && c.joint.sides == 1) {
+        s.error("interpass_wait", "applies to a second pass; this joint has sides = 1");
+    }
     if (p.net_power && *p.net_power > p.voltage * p.current) {
         s.error("net_power", "exceeds the electrical power U x I = " + std::to_string(p.voltage * p.current) + " W");
     }
@@ -242,7 +269,9 @@ void read_grid(Case& c, CaseDocument& doc) {
 
 void read_solver(Case& c, CaseDocument& doc) {
     auto s = doc.section("solver", false);
-    c.solver.integrator = s.choice("integrator", integrators, "explicit");
+    c.solver.integrator = s.choice("integrator", integrator_names, "rkl2");
+    c.solver.max_temperature_change = s.number("max_temperature_change", 500.0, Bounds::closed(1, 2000));
+    c.solver.travel_per_step = s.number("travel_per_step", 0.25, Bounds::closed(0.01, 1));
     c.solver.time_limit = s.quantity("time_limit", Dimension::time, "s", 600.0, Bounds{0, 1e6, true, false});
     // t8/5 needs every point to cool through 500 degC; the stop must lie between that and ambient.
     c.solver.stop_temperature = s.quantity("stop_temperature", Dimension::temperature, "degC", 300.0,

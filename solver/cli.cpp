@@ -4,6 +4,7 @@
 #include "solver/case_reader.hpp"
 #include "solver/check.hpp"
 #include "solver/exit_codes.hpp"
+#include "solver/run_command.hpp"
 
 #include <CLI/CLI.hpp>
 
@@ -27,7 +28,6 @@ void add_case_options(CLI::App& cmd, CommonOptions& o) {
     cmd.add_option("--set", o.sets, "override a case key, e.g. --set procedure.current=\"280 A\" (repeatable)")
         ->type_size(1)
         ->allow_extra_args(false);
-    cmd.add_option("--format", o.format, "output format of the summary")->check(CLI::IsMember({"text", "json"}));
     cmd.add_option("--out", o.out_dir, "folder for the files written");
     cmd.add_flag("--quiet", o.quiet, "print nothing but errors");
 }
@@ -67,7 +67,14 @@ int run_command_line(int argc, char** argv) {
     bool resolved = false;
     auto* check = app.add_subcommand("check", "validate a case and print the quantities to check before a run");
     add_case_options(*check, options);
+    check->add_option("--format", options.format, "output format of the summary")->check(CLI::IsMember({"text", "json"}));
     check->add_flag("--resolved", resolved, "print the resolved case (every default filled in) as TOML");
+
+    auto* run = app.add_subcommand("run", "simulate the pass and the cooling after it; write results");
+    CommonOptions run_options;
+    RunOptions run_extra;
+    add_case_options(*run, run_options);
+    run->add_option("--threads", run_extra.threads, "OpenMP threads (default: all cores)")->check(CLI::Range(1, 1024));
 
     try {
         app.parse(argc, argv);
@@ -77,6 +84,11 @@ int run_command_line(int argc, char** argv) {
     }
     try {
         if (check->parsed()) return check_command(options, resolved);
+        if (run->parsed()) {
+            run_extra.out_dir = run_options.out_dir;
+            run_extra.quiet = run_options.quiet;
+            return run_command(load(run_options), run_extra);
+        }
     } catch (const CaseError& e) {
         const auto& d = e.diagnostics();
         std::cerr << "heatbead: " << d.size() << (d.size() == 1 ? " problem" : " problems")

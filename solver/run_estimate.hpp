@@ -6,10 +6,13 @@
 
 namespace heatbead {
 
-// Storage the solver plans per solid cell: temperature, enthalpy, rate, conductivity, peak
-// temperature, time of peak and four crossing times (10 doubles), six neighbour indices
-// (int32), three face conductances and two integrator work arrays (doubles).
-inline constexpr double bytes_per_solid_cell = 10 * 8 + 6 * 4 + 3 * 8 + 2 * 8;
+// Storage per solid cell, counted from the arrays a run holds (doubles unless noted):
+//   simulation: H, T and their copies at the step start                  4
+//   operator:   k and three face conductances, surface loss conductance  5, plus fused (1 byte)
+//   rkl2:       Y0, L(Y0), Y(j−1), Y(j−2), L(Y(j−1))                      5
+//   history:    peak, time of peak, four crossing times                  6
+//   active flag                                                          1 byte
+inline constexpr double bytes_per_solid_cell = (4 + 5 + 5 + 6) * 8 + 2;
 
 // Bytes a run on this grid needs: per solid cell as above, plus one tag byte per cell.
 double run_memory_bytes(const mesh::Grid& grid);

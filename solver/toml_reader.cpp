@@ -325,24 +325,23 @@ double Section::quantity(std::string_view key, units::Dimension dim, std::string
         return std::numeric_limits<double>::quiet_NaN();
     };
     double value = 0;
-    if (auto i = node->as_integer()) {
-        value = units::to_internal(static_cast<double>(i->get()), unit, dim);
-    } else if (auto f = node->as_floating_point()) {
-        if (!std::isfinite(f->get())) return fail("not a finite number; allowed: " + describe(bounds, dim, unit));
-        value = units::to_internal(f->get(), unit, dim);
-    } else if (auto s = node->as_string()) {
-        try {
+    try {
+        if (auto i = node->as_integer()) {
+            value = units::to_internal(static_cast<double>(i->get()), unit, dim);
+        } else if (auto f = node->as_floating_point()) {
+            value = units::to_internal(f->get(), unit, dim);
+        } else if (auto s = node->as_string()) {
             value = units::parse(s->get(), dim);
-        } catch (const units::UnitError& e) {
-            // The unit parser quotes the text it was given; the message already shows the value.
-            std::string message = e.what();
-            const std::string echoed = render(*node) + ": ";
-            if (message.rfind(echoed, 0) == 0) message.erase(0, echoed.size());
-            return fail(message);
+        } else {
+            return fail("expected a " + std::string(units::dimension_name(dim)) + ", " + example(dim, unit) +
+                        "; got " + type_name(*node));
         }
-    } else {
-        return fail("expected a " + std::string(units::dimension_name(dim)) + ", " + example(dim, unit) + "; got " +
-                    type_name(*node));
+    } catch (const units::UnitError& e) {
+        // The unit parser quotes the text it was given; the message already shows the value.
+        std::string message = e.what();
+        const std::string echoed = render(*node) + ": ";
+        if (message.rfind(echoed, 0) == 0) message.erase(0, echoed.size());
+        return fail(message);
     }
     if (!std::isfinite(value)) return fail("not a finite number");
     if (!bounds.contains(value)) return fail("out of range; allowed: " + describe(bounds, dim, unit));

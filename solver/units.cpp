@@ -32,6 +32,7 @@ DimensionInfo info(Dimension dim) {
         case Dimension::memory: return {"memory", "byte", "8 GB"};
         case Dimension::energy_per_length: return {"energy per length", "J/m", "1.1 kJ/mm"};
         case Dimension::hydrogen: return {"diffusible hydrogen", "ml/100g", "5 ml/100g"};
+        case Dimension::specific_energy: return {"energy per mass", "J/kg", "270 kJ/kg"};
         case Dimension::fraction: return {"fraction", "1", "80 %"};
     }
     throw std::invalid_argument("heatbead::units: invalid Dimension value");
@@ -106,6 +107,8 @@ std::span<const Unit> units() {
         {"J/in", energy_per_length, 10'000, 254},
         {"kJ/in", energy_per_length, 1000 * 10'000, 254},
         {"ml/100g", hydrogen},
+        {"J/kg", specific_energy},
+        {"kJ/kg", specific_energy, 1000},
         {"%", fraction, 1, 100},
     };
     return table;

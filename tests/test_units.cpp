@@ -51,11 +51,12 @@ std::string parse_error(std::string_view text, Dimension dim) {
 }
 
 const std::vector<Dimension> all_dimensions = {
-    Dimension::length,    Dimension::speed,   Dimension::temperature,
-    Dimension::time,      Dimension::current, Dimension::voltage,
-    Dimension::power,     Dimension::angle,   Dimension::heat_transfer_coefficient,
-    Dimension::conductivity, Dimension::memory, Dimension::energy_per_length,
-    Dimension::hydrogen,  Dimension::fraction};
+    Dimension::length,       Dimension::speed,  Dimension::temperature,       Dimension::time,
+    Dimension::current,      Dimension::voltage, Dimension::power,            Dimension::angle,
+    Dimension::heat_transfer_coefficient,        Dimension::conductivity,     Dimension::memory,
+    Dimension::energy_per_length,                Dimension::hydrogen,         Dimension::specific_energy,
+    Dimension::fraction,
+};
 
 }  // namespace
 
@@ -154,6 +155,8 @@ TEST_CASE("welding electrical quantities, time, angle, memory, heat input, hydro
     CHECK(parse("5 ml/100g", hydrogen) == near(5));
     CHECK(parse("5 mL/100g", hydrogen) == near(5));
     CHECK(parse("5 ml/100 g", hydrogen) == near(5));
+    // Latent heat per mass: 1 kJ/kg = 1000 J/kg (SI prefix).
+    CHECK(parse("277 kJ/kg", specific_energy) == near(277e3));
     // 1 % = 0.01 (NIST SP 811).
     CHECK(parse("80 %", fraction) == near(0.8));
     CHECK(parse("80%", fraction) == near(0.8));

@@ -1,0 +1,59 @@
+// The results file of a run: grid, per-cell fields, probe histories, summary numbers, the resolved
+// case and its warnings, in one HDF5 file. post/HDF5_LAYOUT.md describes the layout for readers.
+#pragma once
+
+#include <array>
+#include <filesystem>
+#include <span>
+#include <string>
+#include <vector>
+
+#include "mesh/grid.hpp"
+#include "mesh/solid_cells.hpp"
+
+namespace heatbead::post {
+
+// One value per solid cell, in the solid-cell order of mesh::SolidCells (index i·ns + s).
+struct CellField {
+    std::string name, unit, description;
+    std::span<const double> values;
+};
+
+// Temperature history [degC] at a point [m], sampled at `time` [s].
+struct ProbeSeries {
+    std::string name;
+    std::array<double, 3> position;
+    std::vector<double> time, temperature;
+};
+
+struct Scalar {
+    std::string name;
+    double value;
+    std::string unit;  // "1" for a dimensionless number
+    std::string description;
+};
+
+// Everything a results file holds. The writer only reads it; grid, cells and the field values must
+// stay alive during the call.
+struct RunRecord {
+    const mesh::Grid* grid = nullptr;
+    const mesh::SolidCells* cells = nullptr;
+    std::vector<CellField> fields;
+    std::vector<ProbeSeries> probes;
+    std::vector<Scalar> scalars;
+    std::string resolved_case;  // TOML text of the case with every default filled in
+    std::vector<std::string> warnings;
+    std::string stop_reason, program_version;
+};
+
+// Writes `record` to `path` (layout in post/HDF5_LAYOUT.md), replacing any file there. The file is
+// written beside the target as `path.partial.<pid>` and renamed into place when complete, so `path`
+// is either the old file or the whole new one. Creates missing parent folders.
+//
+// Throws std::runtime_error naming the path, and leaves no temporary behind, when the record is
+// inconsistent (no grid or cells, cells of another grid, a field with the wrong number of values, a
+// probe with unequal time and temperature lengths, an empty unit, a name that is empty, contains '/'
+// or is used twice in one group, or text containing a NUL byte) or when HDF5 or the file system fails.
+void write_hdf5_results(const std::filesystem::path& path, const RunRecord& record);
+
+}  // namespace heatbead::post

@@ -1,0 +1,89 @@
+// The conduction operator: the rate of change of enthalpy of every solid cell,
+//
+//     V_P dH_P/dt = Σ_faces G_f (T_N − T_P) − Σ_free G_s (T_P − T_∞) + Q_P,
+//
+// cell-centred finite volumes on the rectilinear grid (conservative: each face flux appears with
+// opposite signs in its two cells). Face conductance G_f = A_f / (Δ_P/(2k_P) + Δ_N/(2k_N) + R_c):
+// the harmonic mean of k/Δ of the two cells, plus a contact resistance R_c = 1/h_contact on
+// web–flange faces that have not fused. Free faces (void, domain ends, weld metal not yet
+// deposited) lose h_c(T − T_∞) + εσ(T⁴ − T_∞⁴), written as h_eff(T − T_∞) with
+// h_eff = h_c + εσ(T² + T_∞²)(T + T_∞) in kelvin; a free face's conductance to the surroundings
+// is G_s = A / (1/h_eff + Δ/(2k)), the surface film in series with the half cell below it.
+//
+// Conductivity, h_eff and the fused state are lagged: evaluated once a step in prepare(), from
+// the temperature at the start of the step, and held over its stages. Within a step the operator
+// is then linear in T, which is what the stability bounds of the integrators assume.
+#pragma once
+
+#include "mesh/grid.hpp"
+#include "mesh/solid_cells.hpp"
+#include "solver/heat_source.hpp"
+#include "solver/material.hpp"
+
+#include <array>
+#include <cstdint>
+#include <span>
+#include <vector>
+
+namespace heatbead {
+
+struct SurfaceLosses {
+    double convection = 10;             // h_c, W/(m2 K)
+    double emissivity = 0.8;            // ε
+    double ambient = 20;                // T_∞, °C
+    double contact_conductance = 1000;  // h_contact, W/(m2 K); 0 = no contact
+    // Domain faces without losses (symmetry planes, or the far faces of a body standing in for a
+    // semi-infinite one), in the order x−, x+, y−, y+, z−, z+. Faces onto void always lose.
+    std::array<bool, 6> adiabatic{};
+};
+
+// A contiguous range of cell indices [begin, end) that a step must update; cells outside it are
+// still at the initial temperature, with neighbours that are too, and need no work.
+struct CellRange {
+    std::size_t begin = 0, end = 0;
+};
+
+class ConductionOperator {
+public:
+    ConductionOperator(const mesh::Grid& grid, const mesh::SolidCells& cells, const Material& material,
+                       SurfaceLosses losses);
+
+    // Lags conductivity, face conductances, surface losses and fused contacts on the temperature
+    // `T` at the start of a step; `active` says which cells exist (weld metal not yet deposited
+    // does not). `source` is the heat the arc puts into cells during the step, in watts.
+    // `skip_temperature` is the initial temperature, or NaN to update everything; `reach` is how
+    // many cells heat can travel during the step (the number of stages).
+    void prepare(std::span<const double> T, std::span<const std::uint8_t> active,
+                 std::span<const CellPower> source, double skip_temperature, std::size_t reach);
+
+    // T from H for the active cells of the current range.
+    void temperatures(std::span<const double> H, std::span<double> T) const;
+    // dH/dt [W/m³] for the current range from the temperature field (inactive cells: 0).
+    // Returns the heat lost through free surfaces at this field [W], for the energy balance.
+    double rate(std::span<const double> T, std::span<double> dHdt) const;
+
+    // Forward-Euler limit of the current (lagged) operator: min_P V_P ρc_min / Σ G.
+    double stable_step() const { return stable_step_; }
+    CellRange range() const { return range_; }
+
+    double volume(std::size_t cell) const { return dx_[cell / cells_.ns] * dy_[cell % cells_.ns] * dz_[cell % cells_.ns]; }
+    const mesh::SolidCells& cells() const { return cells_; }
+    const Material& material() const { return material_; }
+
+private:
+    const mesh::Grid& grid_;
+    const mesh::SolidCells& cells_;
+    const Material& material_;
+    SurfaceLosses losses_;
+    std::vector<double> dx_, dy_, dz_;           // widths per slice and per section cell
+    std::vector<double> end_area_;               // per section cell: dy·dz (faces at x = 0 and x = L)
+    std::vector<double> k_, gx_, gy_, gz_, gloss_;  // per cell: conductivity, + face conductances, h_eff·A_free
+    std::vector<std::uint8_t> fused_;
+    std::span<const std::uint8_t> active_;
+    std::span<const CellPower> source_;
+    CellRange range_;
+    double stable_step_ = 0;
+    double min_heat_capacity_ = 0;  // min over T of dH/dT [J/(m³ K)]: sets the explicit limit
+};
+
+}  // namespace heatbead

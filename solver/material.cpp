@@ -1,0 +1,352 @@
+#include "solver/material.hpp"
+
+#include "solver/steel_en1993.hpp"
+
+#include <cerrno>
+#include <charconv>
+#include <cstring>
+#include <fstream>
+#include <limits>
+#include <sstream>
+#include <string_view>
+#include <utility>
+
+namespace heatbead {
+
+namespace {
+
+// The table spans at least −100 °C to 3000 °C: below any preheat or cooling bath, above boiling steel.
+// Beyond it H continues linearly and k stays constant, so a run that leaves the span still conserves energy.
+constexpr double table_low = -100.0, table_high = 3000.0;
+constexpr double largest_step = 1.0;  // K; ΔT = (T_l − T_s)/n with the smallest n that keeps ΔT ≤ 1 K
+
+// Composite trapezoidal rule per table segment: sub-steps of ΔT/16 cut the rule's error near the cusp of
+// the EN 1993-1-2 c(θ) at 735 °C by 16² against a single trapezoid.
+constexpr int substeps = 16;
+
+// H-bins per segment at most; bounds the bin index for tables with a tiny c somewhere.
+constexpr std::size_t bins_per_segment_cap = 8;
+
+// Numbers in messages and descriptions: up to 6 significant digits, no trailing zeros ("1495", "0.5").
+std::string number(double x) {
+    std::ostringstream os;
+    os << x;
+    return os.str();
+}
+
+[[noreturn]] void fail_parameter(const std::string& what) { throw MaterialError("material parameters: " + what); }
+
+void check_parameters(double density, const MaterialParameters& p) {
+    if (!(std::isfinite(density) && density > 0))
+        fail_parameter("density " + number(density) + " kg/m3 is not allowed; it must be a positive number");
+    if (!(std::isfinite(p.solidus) && p.solidus > table_low))
+        fail_parameter("solidus " + number(p.solidus) + " degC is not allowed; it must be above " +
+                       number(table_low) + " degC");
+    if (!(std::isfinite(p.liquidus) && p.liquidus < table_high))
+        fail_parameter("liquidus " + number(p.liquidus) + " degC is not allowed; it must be below " +
+                       number(table_high) + " degC");
+    if (!(p.liquidus - p.solidus >= largest_step))
+        fail_parameter("liquidus " + number(p.liquidus) + " degC must be at least " + number(largest_step) +
+                       " K above solidus " + number(p.solidus) +
+                       " degC; the latent heat is spread linearly over the mushy range");
+    if (!(std::isfinite(p.latent_heat) && p.latent_heat >= 0))
+        fail_parameter("latent heat " + number(p.latent_heat) +
+                       " J/kg is not allowed; it must be a finite number >= 0");
+    if (!(std::isfinite(p.liquid_conductivity_factor) && p.liquid_conductivity_factor >= 1))
+        fail_parameter("liquid conductivity factor " + number(p.liquid_conductivity_factor) +
+                       " is not allowed; it must be a finite number >= 1 (1 leaves k unchanged)");
+}
+
+// A property function's value at a table node, checked: user code may hand us anything.
+double positive_property(const PropertyFunction& f, double T, const char* what, const char* unit) {
+    const double v = f(T);
+    if (!(std::isfinite(v) && v > 0))
+        throw MaterialError(std::string(what) + " at " + number(T) + " degC is " + number(v) + " " + unit +
+                            "; it must be a positive finite number");
+    return v;
+}
+
+// ∫_a^b c dT by the composite trapezoidal rule, given c(a) and c(b).
+double integrate_specific_heat(const PropertyFunction& c, double a, double b, double ca, double cb) {
+    const double h = (b - a) / substeps;
+    double sum = 0.5 * (ca + cb);
+    for (int j = 1; j < substeps; ++j) sum += c(a + j * h);
+    return sum * h;
+}
+
+}  // namespace
+
+Material::Material(std::string name, double density_kg_per_m3, const PropertyFunction& conductivity_of,
+                   const PropertyFunction& specific_heat_of, const MaterialParameters& parameters)
+    : name_(std::move(name)), density_(density_kg_per_m3), parameters_(parameters) {
+    check_parameters(density_, parameters_);
+    tabulate(conductivity_of, specific_heat_of);
+    index_enthalpy_bins();
+}
+
+// Node i at T_i = T_s + (i − i_s) ΔT with ΔT = (T_l − T_s)/n, so T_s and T_l are nodes and the latent part
+// ρ L f_l(T), linear between them, is represented exactly by the piecewise-linear H:
+//     H_0 = 0,  H_{i+1} = H_i + ρ ∫_{T_i}^{T_{i+1}} c dT + ρ L (f_{i+1} − f_i),   f_i = clamp((i − i_s)/n, 0, 1)
+// then shifted so that H(0 °C) = 0.
+void Material::tabulate(const PropertyFunction& conductivity_of, const PropertyFunction& specific_heat_of) {
+    const MaterialParameters& p = parameters_;
+    const double mushy_segments = std::ceil((p.liquidus - p.solidus) / largest_step);
+    step_ = (p.liquidus - p.solidus) / mushy_segments;
+    inverse_step_ = 1.0 / step_;
+    solidus_node_ = std::ceil((p.solidus - table_low) * inverse_step_);
+    const double nodes = solidus_node_ + std::ceil((table_high - p.solidus) * inverse_step_) + 1;
+    last_segment_ = nodes - 2;
+
+    enthalpy_.resize(static_cast<std::size_t>(nodes));
+    conductivity_.resize(enthalpy_.size());
+    double previous_T = 0, previous_c = 0, previous_latent = 0;
+    for (std::size_t i = 0; i < enthalpy_.size(); ++i) {
+        const double T = node_temperature(static_cast<double>(i));
+        const double f = std::clamp((static_cast<double>(i) - solidus_node_) / mushy_segments, 0.0, 1.0);
+        const double c = positive_property(specific_heat_of, T, "specific heat", "J/(kg K)");
+        const double latent = density_ * p.latent_heat * f;
+        enthalpy_[i] = i == 0 ? 0.0
+                              : enthalpy_[i - 1] +
+                                    density_ * integrate_specific_heat(specific_heat_of, previous_T, T, previous_c, c) +
+                                    (latent - previous_latent);
+        // k ramps from k to factor·k over the mushy range: k_i = k(T_i) (1 + (factor − 1) f_i).
+        conductivity_[i] = positive_property(conductivity_of, T, "conductivity", "W/(m K)") *
+                           (1.0 + (p.liquid_conductivity_factor - 1.0) * f);
+        previous_T = T;
+        previous_c = c;
+        previous_latent = latent;
+    }
+    const double at_zero = enthalpy(0.0);
+    for (double& h : enthalpy_) h -= at_zero;
+
+    // On a segment k is linear and dH/dT constant, so k/(dH/dT) peaks at an end node. A c(T) that is not
+    // positive between nodes would make H non-monotone and T(H) meaningless.
+    for (std::size_t i = 0; i + 1 < enthalpy_.size(); ++i) {
+        const double slope = (enthalpy_[i + 1] - enthalpy_[i]) * inverse_step_;
+        if (!(std::isfinite(slope) && slope > 0))
+            throw MaterialError("enthalpy does not increase between " + number(node_temperature(static_cast<double>(i))) +
+                                " and " + number(node_temperature(static_cast<double>(i + 1))) +
+                                " degC; the specific heat must be positive there");
+        max_diffusivity_ = std::max(max_diffusivity_, std::max(conductivity_[i], conductivity_[i + 1]) / slope);
+    }
+}
+
+// Bins of width about the smallest segment rise in H, so a bin holds at most a node or two. For bin b the
+// start is the last segment whose lower node lies in an earlier bin: bin_of is monotone in H, so every H in
+// bin b lies at or above that node (bin 0 starts at segment 0, below which H is extrapolated).
+void Material::index_enthalpy_bins() {
+    double smallest_rise = std::numeric_limits<double>::infinity();
+    for (std::size_t i = 0; i + 1 < enthalpy_.size(); ++i)
+        smallest_rise = std::min(smallest_rise, enthalpy_[i + 1] - enthalpy_[i]);
+    const double range = enthalpy_.back() - enthalpy_.front();
+    const std::size_t segments = enthalpy_.size() - 1;
+    const auto bins = static_cast<std::size_t>(
+        std::clamp(std::ceil(range / smallest_rise), 1.0, static_cast<double>(bins_per_segment_cap * segments)));
+    inverse_bin_width_ = static_cast<double>(bins) / range;
+    last_bin_ = static_cast<double>(bins - 1);
+
+    bin_first_segment_.resize(bins);
+    std::size_t i = 0;
+    for (std::size_t b = 0; b < bins; ++b) {
+        while (i + 1 < segments && bin_of(enthalpy_[i + 1]) < b) ++i;
+        bin_first_segment_[b] = static_cast<std::uint32_t>(i);
+    }
+}
+
+std::string Material::description() const {
+    const MaterialParameters& p = parameters_;
+    return name_ + "; density " + number(density_) + " kg/m3; solidus " + number(p.solidus) + " degC, liquidus " +
+           number(p.liquidus) + " degC, latent heat " + number(p.latent_heat / 1e3) +
+           " kJ/kg; liquid conductivity x" + number(p.liquid_conductivity_factor);
+}
+
+Material make_en1993_steel(const MaterialParameters& parameters) {
+    return Material("carbon steel, EN 1993-1-2 (k, c held constant outside 20-1200 degC)", en1993::density,
+                    en1993::conductivity, en1993::specific_heat, parameters);
+}
+
+// ---- Property table reader ----
+
+namespace {
+
+constexpr std::string_view columns = "temperature_degC, conductivity_W_per_mK, specific_heat_J_per_kgK";
+constexpr double absolute_zero = -273.15;  // degC, definition of the Celsius scale (SI Brochure)
+
+struct Cell {
+    std::string_view text;
+    std::size_t column;  // 1-based
+};
+
+// One data row of the table, with where it was read.
+struct Row {
+    double temperature, conductivity, specific_heat;
+    std::size_t line;
+};
+
+class TableParser {
+public:
+    explicit TableParser(std::string path) : path_(std::move(path)) {}
+
+    std::vector<Row> read();
+
+private:
+    [[noreturn]] void fail(std::size_t line, std::size_t column, const std::string& what) const {
+        throw MaterialError(path_ + ":" + std::to_string(line) + ":" + std::to_string(column) + ": " + what);
+    }
+
+    void read_line(std::string_view text, std::size_t line, std::vector<Row>& rows);
+    double read_number(const Cell& cell, std::size_t line, std::string_view column_name) const;
+    void check_row(const Row& row, const std::vector<Cell>& cells, const std::vector<Row>& rows) const;
+
+    std::string path_;
+    bool header_allowed_ = true;
+};
+
+bool is_blank(char ch) { return ch == ' ' || ch == '\t' || ch == '\r' || ch == '\v' || ch == '\f'; }
+
+// The cell text between begin and end of `line`, without surrounding blanks.
+Cell trimmed_cell(std::string_view line, std::size_t begin, std::size_t end) {
+    while (begin < end && is_blank(line[begin])) ++begin;
+    while (end > begin && is_blank(line[end - 1])) --end;
+    return {line.substr(begin, end - begin), begin + 1};
+}
+
+// Cells separated by commas if the line has any (CSV; blanks around cells ignored), else by runs of blanks.
+std::vector<Cell> split_cells(std::string_view line) {
+    std::vector<Cell> cells;
+    if (line.find(',') != std::string_view::npos) {
+        std::size_t begin = 0;
+        for (std::size_t comma; (comma = line.find(',', begin)) != std::string_view::npos; begin = comma + 1)
+            cells.push_back(trimmed_cell(line, begin, comma));
+        cells.push_back(trimmed_cell(line, begin, line.size()));
+        return cells;
+    }
+    for (std::size_t pos = 0; pos < line.size();) {
+        if (is_blank(line[pos])) {
+            ++pos;
+            continue;
+        }
+        const std::size_t begin = pos;
+        while (pos < line.size() && !is_blank(line[pos])) ++pos;
+        cells.push_back({line.substr(begin, pos - begin), begin + 1});
+    }
+    return cells;
+}
+
+// A decimal number filling the whole text ("20", "-5", "+1.5e3"); from_chars also reads "nan" and "inf".
+bool parse_double(std::string_view text, double& value) {
+    if (text.size() > 1 && text.front() == '+' && text[1] != '-') text.remove_prefix(1);
+    const auto [end, ec] = std::from_chars(text.data(), text.data() + text.size(), value);
+    return ec == std::errc() && end == text.data() + text.size() && !text.empty();
+}
+
+// A header is a first content line in which no cell is a number, so a typo in a first data row ("2O, 45,
+// 440") is reported rather than skipped.
+bool is_header(const std::vector<Cell>& cells) {
+    double ignored;
+    return std::none_of(cells.begin(), cells.end(), [&](const Cell& c) { return parse_double(c.text, ignored); });
+}
+
+std::vector<Row> TableParser::read() {
+    std::ifstream in(path_);
+    if (!in) throw MaterialError(path_ + ": cannot open the property table: " + std::strerror(errno));
+    std::vector<Row> rows;
+    std::string text;
+    std::size_t line = 0;
+    while (std::getline(in, text)) {
+        ++line;
+        std::string_view view = text;
+        if (line == 1 && view.starts_with("\xEF\xBB\xBF")) view.remove_prefix(3);  // UTF-8 byte-order mark
+        read_line(view.substr(0, view.find('#')), line, rows);
+    }
+    if (in.bad()) throw MaterialError(path_ + ": cannot read the property table: " + std::strerror(errno));
+    if (rows.size() < 2)
+        fail(rows.empty() ? std::max<std::size_t>(line, 1) : rows.front().line, 1,
+             std::string(rows.empty() ? "the table has no data row" : "the table has only this one data row") +
+                 "; at least 2 rows of " + std::string(columns) + " are needed");
+    return rows;
+}
+
+void TableParser::read_line(std::string_view text, std::size_t line, std::vector<Row>& rows) {
+    const std::vector<Cell> cells = split_cells(text);
+    if (cells.empty()) return;  // blank or comment-only line
+    if (header_allowed_ && is_header(cells)) {
+        header_allowed_ = false;
+        return;
+    }
+    header_allowed_ = false;
+    if (cells.size() != 3)
+        fail(line, cells.size() > 3 ? cells[3].column : 1,
+             "the row '" + std::string(text.substr(cells.front().column - 1)) + "' has " +
+                 std::to_string(cells.size()) + " cells; expected 3: " + std::string(columns));
+    const Row row{read_number(cells[0], line, "temperature"), read_number(cells[1], line, "conductivity"),
+                  read_number(cells[2], line, "specific heat"), line};
+    check_row(row, cells, rows);
+    rows.push_back(row);
+}
+
+double TableParser::read_number(const Cell& cell, std::size_t line, std::string_view column_name) const {
+    const std::string shown = "'" + std::string(cell.text) + "'";
+    const std::string where = std::string(column_name) + " ";
+    if (cell.text.empty())
+        fail(line, cell.column, where + "cell is empty; expected a decimal number such as 20, 45.5 or 6.1e2");
+    double value;
+    if (!parse_double(cell.text, value))
+        fail(line, cell.column,
+             where + shown + " is not a number; expected a decimal number such as 20, 45.5 or 6.1e2");
+    if (!std::isfinite(value))
+        fail(line, cell.column, where + shown + " is not a finite number; NaN and infinity are not allowed");
+    return value;
+}
+
+void TableParser::check_row(const Row& row, const std::vector<Cell>& cells, const std::vector<Row>& rows) const {
+    const auto shown = [&](std::size_t i) { return "'" + std::string(cells[i].text) + "'"; };
+    if (!(row.temperature > absolute_zero))
+        fail(row.line, cells[0].column,
+             "temperature " + shown(0) + " degC is not allowed; it must be above " + number(absolute_zero) +
+                 " degC (absolute zero)");
+    if (!rows.empty() && !(row.temperature > rows.back().temperature))
+        fail(row.line, cells[0].column,
+             "temperature " + shown(0) + " degC is not above " + number(rows.back().temperature) +
+                 " degC of the previous row (line " + std::to_string(rows.back().line) +
+                 "); temperatures must increase strictly from row to row");
+    if (!(row.conductivity > 0))
+        fail(row.line, cells[1].column,
+             "conductivity " + shown(1) + " W/(m K) is not allowed; it must be positive");
+    if (!(row.specific_heat > 0))
+        fail(row.line, cells[2].column,
+             "specific heat " + shown(2) + " J/(kg K) is not allowed; it must be positive");
+}
+
+// y(x) linear between the rows, held at the end values beyond them.
+PropertyFunction interpolate(std::vector<double> x, std::vector<double> y) {
+    return [x = std::move(x), y = std::move(y)](double t) {
+        if (t <= x.front()) return y.front();
+        if (t >= x.back()) return y.back();
+        const std::size_t j = static_cast<std::size_t>(std::upper_bound(x.begin(), x.end(), t) - x.begin());
+        const double w = (t - x[j - 1]) / (x[j] - x[j - 1]);
+        return y[j - 1] + w * (y[j] - y[j - 1]);
+    };
+}
+
+}  // namespace
+
+Material read_property_table(const std::string& path, double density, const MaterialParameters& parameters) {
+    const std::vector<Row> rows = TableParser(path).read();
+    std::vector<double> T, k, c;
+    for (const Row& r : rows) {
+        T.push_back(r.temperature);
+        k.push_back(r.conductivity);
+        c.push_back(r.specific_heat);
+    }
+    const std::string name = "property table " + path + " (" + std::to_string(rows.size()) + " rows, " +
+                             number(T.front()) + " to " + number(T.back()) +
+                             " degC; k, c held constant outside)";
+    try {
+        return Material(name, density, interpolate(T, std::move(k)), interpolate(T, std::move(c)), parameters);
+    } catch (const MaterialError& e) {
+        throw MaterialError(path + ": " + e.what());  // the density and parameters that came with this table
+    }
+}
+
+}  // namespace heatbead

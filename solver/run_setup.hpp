@@ -1,0 +1,20 @@
+// From a validated case to the objects a run needs: grid, material, passes and settings.
+#pragma once
+
+#include "mesh/grid.hpp"
+#include "solver/case.hpp"
+#include "solver/material.hpp"
+#include "solver/simulation.hpp"
+
+#include <vector>
+
+namespace heatbead {
+
+Material make_material(const MaterialSpec& base);
+SurfaceLosses make_losses(const Case& c);
+// One pass per side: side +1 first; side −1 after the interpass wait (or once the hottest cell
+// has cooled to the interpass temperature).
+std::vector<Pass> make_passes(const Case& c);
+RunSettings make_settings(const Case& c);
+
+}  // namespace heatbead
