@@ -2,6 +2,7 @@
 
 #include "post/atomic_file.hpp"
 #include "solver/case_reader.hpp"
+#include "solver/bench.hpp"
 #include "solver/check.hpp"
 #include "solver/exit_codes.hpp"
 #include "solver/run_command.hpp"
@@ -76,6 +77,11 @@ int run_command_line(int argc, char** argv) {
     add_case_options(*run, run_options);
     run->add_option("--threads", run_extra.threads, "OpenMP threads (default: all cores)")->check(CLI::Range(1, 1024));
 
+    auto* bench = app.add_subcommand("bench", "measure speed on the reference case (ratios from one run)");
+    BenchOptions bench_options;
+    bench->add_option("case", bench_options.case_path, "reference case file")->capture_default_str();
+    bench->add_flag("--quick", bench_options.quick, "small grids: checks the benchmark runs, figures not meaningful");
+
     try {
         app.parse(argc, argv);
     } catch (const CLI::ParseError& e) {
@@ -84,6 +90,7 @@ int run_command_line(int argc, char** argv) {
     }
     try {
         if (check->parsed()) return check_command(options, resolved);
+        if (bench->parsed()) return bench_command(bench_options);
         if (run->parsed()) {
             run_extra.out_dir = run_options.out_dir;
             run_extra.quiet = run_options.quiet;
