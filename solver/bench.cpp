@@ -38,12 +38,12 @@ double triad_bandwidth(std::size_t n, int repeats) {
     return best;
 }
 
-// Bytes one RKL2 stage moves per cell, counted from the arrays it streams:
-//   T from H:  read H, active; write T                               8 + 1 + 8
-//   rate:      read T, gx, gy, gz, gloss, active; write rate          8 + 32 + 1 + 8
-//   update:    read Y(j−1), Y(j−2), Y0, rate, L0; write Y(j)          40 + 8
+// Bytes one RKL2 stage moves per cell, counted from the arrays its single fused sweep streams:
+//   read T(j−1), gx, gy, gz, gloss, active          8 + 32 + 1
+//   read Y(j−1), Y(j−2), Y0, L0                     32
+//   write Y(j) and T(j)                             16
 // Neighbour values and the section's neighbour table are reused from cache.
-constexpr double bytes_per_stage = 8 + 1 + 8 + 8 + 32 + 1 + 8 + 40 + 8;
+constexpr double bytes_per_stage = 8 + 32 + 1 + 32 + 16;
 
 struct ReferenceRun {
     double finest = 0, wall = 0, end_time = 0;

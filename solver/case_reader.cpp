@@ -241,6 +241,13 @@ void read_temperatures(Case& c, CaseDocument& doc) {
     t.preheat = s.quantity("preheat", Dimension::temperature, "degC", t.ambient, plausible);
     t.interpass = s.quantity("interpass", Dimension::temperature, "degC", t.preheat, plausible);
     if (t.interpass < t.preheat) doc.warn("interpass temperature is below the preheat temperature");
+    // Without a fixed wait the second pass starts when the joint has cooled to the interpass
+    // temperature, which it never does if that is not above the surroundings.
+    if (c.joint.sides == 2 && !c.procedure.interpass_wait && !(t.interpass > t.ambient + 1)) {
+        s.error("interpass", "the second pass starts when the hottest cell has cooled to the interpass temperature, "
+                             "which must then be above ambient (" + std::to_string(static_cast<int>(t.ambient)) +
+                                 " degC); raise it or set procedure.interpass_wait");
+    }
 }
 
 void read_surface(Case& c, CaseDocument& doc) {

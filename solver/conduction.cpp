@@ -151,41 +151,9 @@ void ConductionOperator::temperatures(std::span<const double> H, std::span<doubl
 }
 
 double ConductionOperator::rate(std::span<const double> T, std::span<double> dHdt) const {
-    const std::size_t nx = cells_.nx, ns = cells_.ns;
-    const std::size_t i_lo = range_.begin / ns, i_hi = range_.end / ns;
-    double lost = 0;
-#pragma omp parallel for schedule(static) reduction(+ : lost) if ((i_hi - i_lo) * ns >= mesh::parallel_min_cells)
-    for (std::size_t i = i_lo; i < i_hi; ++i) {
-        const double inv_dx = 1.0 / dx_[i];
-        for (std::size_t s = 0; s < ns; ++s) {
-            const std::size_t c = i * ns + s;
-            if (!active_[c]) {
-                dHdt[c] = 0;
-                continue;
-            }
-            const double tc = T[c];
-            // Inactive neighbours have zero conductance, so their (stale) T does not matter.
-            const double loss = gloss_[c] * (tc - losses_.ambient);
-            lost += loss;
-            double flow = -loss;
-            if (i + 1 < nx) flow += gx_[c] * (T[c + ns] - tc);
-            if (i > 0) flow += gx_[c - ns] * (T[c - ns] - tc);
-            const auto& nb = cells_.neighbour[s];
-            const std::size_t base = i * ns;
-            if (nb[mesh::plus_y] != no_neighbour) flow += gy_[c] * (T[base + nb[mesh::plus_y]] - tc);
-            if (nb[mesh::minus_y] != no_neighbour) {
-                const std::size_t m = base + nb[mesh::minus_y];
-                flow += gy_[m] * (T[m] - tc);
-            }
-            if (nb[mesh::plus_z] != no_neighbour) flow += gz_[c] * (T[base + nb[mesh::plus_z]] - tc);
-            if (nb[mesh::minus_z] != no_neighbour) {
-                const std::size_t m = base + nb[mesh::minus_z];
-                flow += gz_[m] * (T[m] - tc);
-            }
-            dHdt[c] = flow * inv_dx / end_area_[s];
-        }
-    }
-    for (const auto& p : source_) dHdt[p.cell] += p.watts / volume(p.cell);
+    const double lost = for_each_rate(T, [&](std::size_t c, double r, bool active) { dHdt[c] = active ? r : 0.0; });
+#pragma omp parallel for schedule(static) if (source_.size() >= mesh::parallel_min_cells)
+    for (std::size_t n = 0; n < source_.size(); ++n) dHdt[source_[n].cell] += source_[n].watts / volume(source_[n].cell);
     return lost;
 }
 

@@ -62,6 +62,13 @@ public:
     // Returns the heat lost through free surfaces at this field [W], for the energy balance.
     double rate(std::span<const double> T, std::span<double> dHdt) const;
 
+    // The sweep behind rate(): calls sink(c, r, active) for every cell of the range with r the
+    // rate of conduction and surface loss [W/m³] (the source is not included: see source()).
+    // Integrators fuse their update into the sink, so a stage streams memory once.
+    template <class Sink>
+    double for_each_rate(std::span<const double> T, Sink&& sink) const;
+    std::span<const CellPower> source() const { return source_; }
+
     // Forward-Euler limit of the current (lagged) operator: min_P V_P ρc_min / Σ G.
     double stable_step() const { return stable_step_; }
     CellRange range() const { return range_; }
@@ -85,5 +92,45 @@ private:
     double stable_step_ = 0;
     double min_heat_capacity_ = 0;  // min over T of dH/dT [J/(m³ K)]: sets the explicit limit
 };
+
+template <class Sink>
+double ConductionOperator::for_each_rate(std::span<const double> T, Sink&& sink) const {
+    using mesh::no_neighbour;
+    const std::size_t nx = cells_.nx, ns = cells_.ns;
+    const std::size_t i_lo = range_.begin / ns, i_hi = range_.end / ns;
+    double lost = 0;
+#pragma omp parallel for schedule(static) reduction(+ : lost) if ((i_hi - i_lo) * ns >= mesh::parallel_min_cells)
+    for (std::size_t i = i_lo; i < i_hi; ++i) {
+        const double inv_dx = 1.0 / dx_[i];
+        const std::size_t base = i * ns;
+        for (std::size_t s = 0; s < ns; ++s) {
+            const std::size_t c = base + s;
+            if (!active_[c]) {
+                sink(c, 0.0, false);
+                continue;
+            }
+            const double tc = T[c];
+            // Inactive neighbours have zero conductance, so their (stale) T does not matter.
+            const double loss = gloss_[c] * (tc - losses_.ambient);
+            lost += loss;
+            double flow = -loss;
+            if (i + 1 < nx) flow += gx_[c] * (T[c + ns] - tc);
+            if (i > 0) flow += gx_[c - ns] * (T[c - ns] - tc);
+            const auto& nb = cells_.neighbour[s];
+            if (nb[mesh::plus_y] != no_neighbour) flow += gy_[c] * (T[base + nb[mesh::plus_y]] - tc);
+            if (nb[mesh::minus_y] != no_neighbour) {
+                const std::size_t m = base + nb[mesh::minus_y];
+                flow += gy_[m] * (T[m] - tc);
+            }
+            if (nb[mesh::plus_z] != no_neighbour) flow += gz_[c] * (T[base + nb[mesh::plus_z]] - tc);
+            if (nb[mesh::minus_z] != no_neighbour) {
+                const std::size_t m = base + nb[mesh::minus_z];
+                flow += gz_[m] * (T[m] - tc);
+            }
+            sink(c, flow * inv_dx / end_area_[s], true);
+        }
+    }
+    return lost;
+}
 
 }  // namespace heatbead

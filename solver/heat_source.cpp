@@ -10,7 +10,9 @@ namespace heatbead {
 namespace {
 
 constexpr std::size_t max_points = 8;     // Gauss–Legendre points per axis and cell, at most
-constexpr double cutoff_semi_axes = 2.5;  // q/q_peak = e^(-3·2.5²) ≈ 7e-9 at the box edge
+// q/q_peak = e^(-3·2²) ≈ 6e-6 at the box edge; the power beyond is about 1e-5 of the total
+// (a 3-D Gaussian with variance c²/6 per axis), and renormalisation puts it back.
+constexpr double cutoff_semi_axes = 2.0;
 
 void require(bool ok, const std::string& what) {
     if (!ok) throw std::invalid_argument(what);

@@ -79,7 +79,7 @@ public:
     //
     // Each cell's integral uses tensor Gauss–Legendre points, n = ceil(3h/s_min) per axis (h the cell
     // width, s_min the smallest semi-axis, n <= 8), so the sub-spacing is about s_min/3 or less. Only cells
-    // overlapping the cut-off box (2.5 semi-axes in the local frame, where q has fallen to e^(-18.75) of its
+    // overlapping the cut-off box (2 semi-axes in the local frame, where q has fallen to e^(-12) of its
     // peak) are visited. `active` has one flag per solid cell (nonzero = metal present); `out` is cleared
     // and refilled, keeping its capacity, so steady use does not allocate. Throws std::invalid_argument
     // when `active` does not match `cells`.

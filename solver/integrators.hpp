@@ -46,14 +46,14 @@ private:
 class RungeKuttaLegendre2 final : public Integrator {
 public:
     static constexpr std::size_t max_stages = 400;
-    explicit RungeKuttaLegendre2(std::size_t cells) : y0_(cells), l0_(cells), prev_(cells), prev2_(cells), rate_(cells) {}
+    explicit RungeKuttaLegendre2(std::size_t cells) : y0_(cells), l0_(cells), prev_(cells), prev2_(cells), t2_(cells) {}
     std::string_view name() const override { return "rkl2"; }
     double max_step(double stable_step) const override;
     std::size_t stages(double dt, double stable_step) const override;
     double step(const ConductionOperator& op, std::span<double> H, std::span<double> T, double dt) override;
 
 private:
-    std::vector<double> y0_, l0_, prev_, prev2_, rate_;
+    std::vector<double> y0_, l0_, prev_, prev2_, t2_;
 };
 
 // Integrator names the case file accepts.

@@ -145,6 +145,8 @@ void Material::index_enthalpy_bins() {
     inverse_bin_width_ = static_cast<double>(bins) / range;
     last_bin_ = static_cast<double>(bins - 1);
 
+    inverse_rise_.resize(segments);
+    for (std::size_t k = 0; k < segments; ++k) inverse_rise_[k] = 1.0 / (enthalpy_[k + 1] - enthalpy_[k]);
     bin_first_segment_.resize(bins);
     std::size_t i = 0;
     for (std::size_t b = 0; b < bins; ++b) {

@@ -48,11 +48,13 @@ public:
 
     // The exact inverse of enthalpy(): T such that enthalpy(T) == H, to rounding. O(1): the H-bin of H
     // gives a segment at or below H, then a walk of at most a node or two.
+    // This runs for every cell in every stage, so the usual case is branch-free: bins are narrower
+    // than any segment's rise, so at most one node lies between the bin's first segment and H.
     double temperature(double H) const {
         std::size_t i = bin_first_segment_[bin_of(H)];
-        while (i + 2 < enthalpy_.size() && H >= enthalpy_[i + 1]) ++i;
-        const double fraction = (H - enthalpy_[i]) / (enthalpy_[i + 1] - enthalpy_[i]);
-        return node_temperature(static_cast<double>(i) + fraction);
+        i += static_cast<std::size_t>(i + 2 < enthalpy_.size() && H >= enthalpy_[i + 1]);
+        while (i + 2 < enthalpy_.size() && H >= enthalpy_[i + 1]) [[unlikely]] ++i;  // tables with capped bins
+        return node_temperature(static_cast<double>(i) + (H - enthalpy_[i]) * inverse_rise_[i]);
     }
 
     // k(T) [W/(m K)], including the liquid conductivity factor; held constant beyond the table.
@@ -126,6 +128,7 @@ private:
     std::vector<double> conductivity_;    // k at the nodes [W/(m K)], liquid factor included
     double inverse_bin_width_ = 0, last_bin_ = 0;
     std::vector<std::uint32_t> bin_first_segment_;  // per H-bin: the last segment starting in an earlier bin
+    std::vector<double> inverse_rise_;              // per segment: 1 / (H_{i+1} − H_i)
     double max_diffusivity_ = 0;
 };
 

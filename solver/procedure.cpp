@@ -47,9 +47,10 @@ std::optional<Deposition> deposition(const Case& c) {
     Deposition d;
     // Volume of wire fed per second over length welded per second.
     d.area = std::numbers::pi * p.wire_diameter * p.wire_diameter / 4.0 * *p.wire_feed_speed / p.travel_speed;
-    d.equal_leg = equal_leg_for_area(d.area / j.sides, j.face, j.convexity);
-    d.asked_area = j.sides * mesh::fillet_area(j.leg_flange, j.leg_web, j.face, j.convexity);
-    d.asked_leg = equal_leg_for_area(d.asked_area / j.sides, j.face, j.convexity);
+    // Each side is its own pass, so one pass's wire fills one bead.
+    d.equal_leg = equal_leg_for_area(d.area, j.face, j.convexity);
+    d.asked_area = mesh::fillet_area(j.leg_flange, j.leg_web, j.face, j.convexity);
+    d.asked_leg = equal_leg_for_area(d.asked_area, j.face, j.convexity);
     d.difference = (d.equal_leg - d.asked_leg) / d.asked_leg;
     return d;
 }

@@ -26,9 +26,9 @@ double net_power(const ProcedureSpec& p);
 double heat_input(const ProcedureSpec& p);
 
 struct Deposition {
-    double area = 0;        // m², deposited per unit length = (π d²/4)·WFS / v
+    double area = 0;        // m², deposited per unit length of one pass = (π d²/4)·WFS / v
     double equal_leg = 0;   // m, leg of the equal-leg fillet of the joint's face shape with that area
-    double asked_area = 0;  // m², cross-section of the bead the case asks for
+    double asked_area = 0;  // m², cross-section of one bead the case asks for
     double asked_leg = 0;   // m, equal leg with the asked area
     double difference = 0;  // (equal_leg − asked_leg) / asked_leg
 };

@@ -66,6 +66,9 @@ post::RunRecord make_record(const Simulation& sim, const LoadedCase& loaded, con
 }  // namespace
 
 int run_command(const LoadedCase& loaded, const RunOptions& options) {
+    // Handlers first: a Ctrl-C while the grid is built must also end cleanly.
+    std::signal(SIGINT, on_signal);
+    std::signal(SIGTERM, on_signal);
     const Case& c = loaded.value;
     if (options.threads > 0) omp_set_num_threads(options.threads);
     const std::filesystem::path out = options.out_dir.empty()
@@ -77,8 +80,6 @@ int run_command(const LoadedCase& loaded, const RunOptions& options) {
     Simulation sim(grid, material, make_losses(c), make_passes(c), make_settings(c));
     for (std::size_t i = 0; i < c.output.probes.size(); ++i) sim.add_probe("user_" + std::to_string(i + 1), c.output.probes[i]);
 
-    std::signal(SIGINT, on_signal);
-    std::signal(SIGTERM, on_signal);
     const RunEstimate estimate = estimate_run(c, grid);
     ProgressPrinter progress(options.quiet, estimate.simulated_time);
     const auto start = std::chrono::steady_clock::now();
@@ -86,9 +87,9 @@ int run_command(const LoadedCase& loaded, const RunOptions& options) {
         sim.run(interrupt_flag(), [&](double t, double x, double dt, double hot) { progress.update(t, x, dt, hot); });
     const double wall = std::chrono::duration<double>(std::chrono::steady_clock::now() - start).count();
     progress.finish();
-    if (!result.completed) {
-        std::fprintf(stderr, "heatbead: run %s at t = %.2f s; nothing was written\n", result.stop_reason.c_str(),
-                     result.end_time);
+    if (!result.completed || interrupt_flag().load()) {
+        std::fprintf(stderr, "heatbead: run %s at t = %.2f s; nothing was written\n",
+                     interrupt_flag().load() ? "interrupted" : result.stop_reason.c_str(), result.end_time);
         return exit_code::run_failed;
     }
 
@@ -103,6 +104,7 @@ int run_command(const LoadedCase& loaded, const RunOptions& options) {
                     net_power(c.procedure), c.procedure.travel_speed * 1e3);
         std::printf("Grid        %zu solid cells (%zu x %zu x %zu grid), finest %.2f mm\n", sim.cells().size(),
                     grid.x.cells(), grid.y.cells(), grid.z.cells(), c.grid.cross_section.finest * 1e3);
+        std::printf("Material    %s\n", material.description().c_str());
         std::printf("Integrator  %s: %zu steps (%zu rejected), %zu stages, %.3g cell updates\n",
                     c.solver.integrator.c_str(), result.steps, result.rejected, result.stages, result.cell_updates);
         std::printf("Stopped     at %.1f s: %s\n", result.end_time, result.stop_reason.c_str());

@@ -104,6 +104,7 @@ RunResult Simulation::run(const std::atomic<bool>& interrupt, const ProgressFn& 
     result.pass_start.push_back(0.0);
 
     double t = 0, dt = ctl.first_step, stable = 0;
+    double hottest = settings_.initial_temperature;  // hottest active cell after the last step
     for (;;) {
         if (interrupt.load()) {
             result.stop_reason = "interrupted";
@@ -118,7 +119,7 @@ RunResult Simulation::run(const std::atomic<bool>& interrupt, const ProgressFn& 
         if (phase == Phase::waiting) {
             const Pass& next = passes_[p + 1];
             const bool ready = next.wait ? t >= result.pass_end.back() + *next.wait - 1e-9
-                                         : max_temperature() <= next.interpass;
+                                         : hottest <= next.interpass;
             if (ready) {
                 ++p;
                 path = next.path(t);
@@ -129,7 +130,6 @@ RunResult Simulation::run(const std::atomic<bool>& interrupt, const ProgressFn& 
             }
         }
         if (phase == Phase::cooling) {
-            const double hottest = max_temperature();
             if (hottest < settings_.stop_temperature) {
                 result.stop_reason = "every solid cell cooled below the stop temperature";
                 result.completed = true;
@@ -137,8 +137,10 @@ RunResult Simulation::run(const std::atomic<bool>& interrupt, const ProgressFn& 
             }
         }
         if (t >= settings_.time_limit - 1e-12) {
-            result.stop_reason = "time limit reached";
-            result.completed = true;
+            // A run that has not laid every pass has not simulated the joint asked for.
+            const bool all_passes = phase == Phase::cooling || (phase == Phase::welding && p + 1 == passes_.size());
+            result.stop_reason = all_passes ? "time limit reached" : "time limit reached before every pass was laid";
+            result.completed = all_passes;
             break;
         }
 
@@ -185,9 +187,13 @@ RunResult Simulation::run(const std::atomic<bool>& interrupt, const ProgressFn& 
         // step starts cold inside the arc, and its jump says nothing about accuracy.
         for (const std::size_t c : born_) arc_heated_[c] = 1;
         for (const auto& q : source_) arc_heated_[q.cell] = 1;
-        double change = 0;
-#pragma omp parallel for schedule(static) reduction(max : change) if (r.end - r.begin >= mesh::parallel_min_cells)
+        // The same sweep finds the hottest cell: cells outside the range are at the initial
+        // temperature, below anything inside it that matters.
+        double change = 0, range_hottest = settings_.initial_temperature;
+#pragma omp parallel for schedule(static) reduction(max : change, range_hottest) if (r.end - r.begin >= mesh::parallel_min_cells)
         for (std::size_t c = r.begin; c < r.end; ++c) {
+            if (!active_[c]) continue;
+            range_hottest = std::max(range_hottest, T_[c]);
             if (!arc_heated_[c]) change = std::max(change, std::abs(T_[c] - T_old_[c]));
         }
         for (const std::size_t c : born_) arc_heated_[c] = 0;
@@ -211,7 +217,8 @@ RunResult Simulation::run(const std::atomic<bool>& interrupt, const ProgressFn& 
         ++result.steps;
         result.stages += stages;
         result.cell_updates += static_cast<double>(stages) * static_cast<double>(r.end - r.begin);
-        if (progress) progress(t, path ? path->origin(t)[0] : std::nan(""), dt, max_temperature());
+        hottest = range_hottest;
+        if (progress) progress(t, path ? path->origin(t)[0] : std::nan(""), dt, hottest);
         // Next step: aim at the allowed change, growing at most ×2 and shrinking at most ×2.
         dt *= std::clamp(ctl.max_change / std::max(change, 1e-12), 0.5, 2.0);
     }
