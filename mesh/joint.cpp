@@ -6,9 +6,7 @@
 #include <string>
 
 namespace heatbead::mesh {
-namespace {
 
-// s in A = l_f·l_w/2 + s·(2/3)·|d|·c: the face bulges outward (+1), inward (-1) or not at all (0).
 double face_sign(FaceShape face) {
     switch (face) {
         case FaceShape::convex: return 1.0;
@@ -17,6 +15,8 @@ double face_sign(FaceShape face) {
     }
     return 0.0;
 }
+
+namespace {
 
 bool within(double v, double lo, double hi) { return v >= lo && v <= hi; }
 

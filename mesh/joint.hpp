@@ -43,6 +43,9 @@ struct JointGeometry {
     double web_face(int side) const;
 };
 
+// s in A = l_f·l_w/2 + s·(2/3)·|d|·c: the face bulges outward (+1), inward (-1) or not at all (0).
+double face_sign(FaceShape face);
+
 // Largest convexity c for which the face neither turns back over a toe (convex) nor dips below a plate
 // (concave). The face F + u·d + 4c·u(1-u)·n (chord d, unit normal n) has tangents at the toes that reach
 // the plate surfaces when 4c·l_f/|d| = l_w or 4c·l_w/|d| = l_f, so c_max = |d|·min(l_f/l_w, l_w/l_f)/4

@@ -1,6 +1,7 @@
 #include "solver/check.hpp"
 
 #include "mesh/grid.hpp"
+#include "solver/run_setup.hpp"
 
 #include <algorithm>
 #include <cmath>
@@ -29,12 +30,10 @@ std::string fmt(const char* format, ...) {
     return s;
 }
 
-std::string line(const char* format, ...) {
-    va_list args;
-    va_start(args, format);
-    std::string s = vformat(format, args);
-    va_end(args);
-    return s + "\n";
+// One line of the report: fmt() plus the newline.
+template <class... Args>
+std::string line(const char* format, Args... args) {
+    return fmt(format, args...) + "\n";
 }
 
 std::string human_bytes(double b) {
@@ -78,7 +77,7 @@ CheckReport make_check_report(const Case& c) {
     r.h_max = std::max({grid.x.max_width(), grid.y.max_width(), grid.z.max_width()});
     r.max_ratio = std::max({grid.x.max_ratio(), grid.y.max_ratio(), grid.z.max_ratio()});
     r.memory = run_memory_bytes(grid);
-    r.estimate = estimate_run(c, grid);
+    r.estimate = estimate_run(c, grid, make_material(c.base));
     return r;
 }
 

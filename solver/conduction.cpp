@@ -28,11 +28,7 @@ ConductionOperator::ConductionOperator(const mesh::Grid& grid, const mesh::Solid
     k_.assign(n, 0), gx_.assign(n, 0), gy_.assign(n, 0), gz_.assign(n, 0), gloss_.assign(n, 0);
     fused_.assign(n, 0);
     range_ = {0, n};
-    // An explicit enthalpy step changes T by ΔH/(dH/dT); the smallest dH/dT is the stiffest.
-    min_heat_capacity_ = std::numeric_limits<double>::infinity();
-    for (double theta = -50; theta <= 3000; theta += 0.5) {
-        min_heat_capacity_ = std::min(min_heat_capacity_, material.volumetric_heat_capacity(theta));
-    }
+
 }
 
 void ConductionOperator::prepare(std::span<const double> T, std::span<const std::uint8_t> active,
@@ -140,7 +136,7 @@ void ConductionOperator::prepare(std::span<const double> T, std::span<const std:
             worst = std::max(worst, sum_g / (dx_[i] * end_area_[s]));
         }
     }
-    stable_step_ = worst > 0 ? min_heat_capacity_ / worst : std::numeric_limits<double>::infinity();
+    stable_step_ = worst > 0 ? material_.min_volumetric_heat_capacity() / worst : std::numeric_limits<double>::infinity();
 }
 
 void ConductionOperator::temperatures(std::span<const double> H, std::span<double> T) const {

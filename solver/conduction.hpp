@@ -90,7 +90,6 @@ private:
     std::span<const CellPower> source_;
     CellRange range_;
     double stable_step_ = 0;
-    double min_heat_capacity_ = 0;  // min over T of dH/dT [J/(m³ K)]: sets the explicit limit
 };
 
 template <class Sink>

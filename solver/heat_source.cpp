@@ -26,15 +26,6 @@ Vec3 cross(const Vec3& a, const Vec3& b) {
 
 // --- Torch geometry -------------------------------------------------------------------------------------
 
-double face_sign(mesh::FaceShape face) {
-    switch (face) {
-        case mesh::FaceShape::convex: return 1.0;
-        case mesh::FaceShape::concave: return -1.0;
-        case mesh::FaceShape::flat: break;
-    }
-    return 0.0;
-}
-
 // The root of q2·u² + q1·u + q0 in [0, 1] when q0 < 0 < q2 + q1 + q0 (so exactly one lies there), from
 // the cancellation-free pair q = -(q1 + sgn(q1)·√(q1² - 4·q2·q0))/2, u = q0/q and u = q/q2. A flat face
 // (q2 = 0) has the single root q0/q = -q0/q1.
@@ -59,7 +50,7 @@ BeadPoint face_on_ray(const mesh::JointGeometry& joint, double work_angle) {
     const double lf = joint.leg_flange, lw = joint.leg_web;
     const double chord = std::hypot(lf, lw);
     const double ea = std::cos(work_angle), ez = std::sin(work_angle);
-    const double bulge = face_sign(joint.face) * 4.0 * joint.convexity;  // s·4c
+    const double bulge = mesh::face_sign(joint.face) * 4.0 * joint.convexity;  // s·4c
     const double k = bulge * (ea * lf - ez * lw) / chord;
     const double u = root_in_unit_interval(-k, ea * lw + ez * lf + k, -ez * lf);
     const double v = bulge * u * (1.0 - u);

@@ -138,6 +138,7 @@ void Material::index_enthalpy_bins() {
     double smallest_rise = std::numeric_limits<double>::infinity();
     for (std::size_t i = 0; i + 1 < enthalpy_.size(); ++i)
         smallest_rise = std::min(smallest_rise, enthalpy_[i + 1] - enthalpy_[i]);
+    min_heat_capacity_ = smallest_rise * inverse_step_;
     const double range = enthalpy_.back() - enthalpy_.front();
     const std::size_t segments = enthalpy_.size() - 1;
     const auto bins = static_cast<std::size_t>(

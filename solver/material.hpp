@@ -82,6 +82,9 @@ public:
     // by ΔH/(dH/dT), so the latent heat (large dH/dT) only slows it down: the maximum of k/(dH/dT) itself
     // is the binding value, and the liquid conductivity factor raises it.
     double max_diffusivity() const { return max_diffusivity_; }
+    // min over T of dH/dT [J/(m³ K)]: an explicit enthalpy step changes T by ΔH/(dH/dT), so the
+    // smallest slope is the stiffest.
+    double min_volumetric_heat_capacity() const { return min_heat_capacity_; }
 
     const MaterialParameters& parameters() const { return parameters_; }
 
@@ -130,6 +133,7 @@ private:
     std::vector<std::uint32_t> bin_first_segment_;  // per H-bin: the last segment starting in an earlier bin
     std::vector<double> inverse_rise_;              // per segment: 1 / (H_{i+1} − H_i)
     double max_diffusivity_ = 0;
+    double min_heat_capacity_ = 0;
 };
 
 // Carbon steel after EN 1993-1-2 §3.4.1 (solver/steel_en1993.hpp): k and c held constant outside the

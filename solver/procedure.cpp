@@ -35,7 +35,7 @@ double net_power(const ProcedureSpec& p) {
 double heat_input(const ProcedureSpec& p) { return net_power(p) / p.travel_speed; }
 
 double equal_leg_for_area(double area, mesh::FaceShape face, double convexity) {
-    const double s = face == mesh::FaceShape::convex ? 1.0 : face == mesh::FaceShape::concave ? -1.0 : 0.0;
+    const double s = mesh::face_sign(face);
     const double k = 2.0 * std::numbers::sqrt2 / 3.0 * convexity;
     return -s * k + std::sqrt(k * k + 2.0 * area);
 }

@@ -80,7 +80,7 @@ int run_command(const LoadedCase& loaded, const RunOptions& options) {
     Simulation sim(grid, material, make_losses(c), make_passes(c), make_settings(c));
     for (std::size_t i = 0; i < c.output.probes.size(); ++i) sim.add_probe("user_" + std::to_string(i + 1), c.output.probes[i]);
 
-    const RunEstimate estimate = estimate_run(c, grid);
+    const RunEstimate estimate = estimate_run(c, grid, material);
     ProgressPrinter progress(options.quiet, estimate.simulated_time);
     const auto start = std::chrono::steady_clock::now();
     const RunResult result =

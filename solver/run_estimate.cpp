@@ -1,7 +1,6 @@
 #include "solver/run_estimate.hpp"
 
 #include "solver/procedure.hpp"
-#include "solver/steel_en1993.hpp"
 
 #include <algorithm>
 #include <numbers>
@@ -31,15 +30,15 @@ double stable_explicit_step(const mesh::Grid& grid, double diffusivity) {
     return 1.0 / (diffusivity * (axis_stiffness(grid.x) + axis_stiffness(grid.y) + axis_stiffness(grid.z)));
 }
 
-RunEstimate estimate_run(const Case& c, const mesh::Grid& grid) {
+RunEstimate estimate_run(const Case& c, const mesh::Grid& grid, const Material& material) {
     RunEstimate e;
     // Cooling after the arc has passed, thick-plate line-source estimate (Rosenthal 1946):
     // T − T0 = (q/v) / (2πk·t)  ⇒  t = (q/v) / (2πk (T_stop − T0)).
-    const double k = en1993::conductivity(c.solver.stop_temperature);
+    const double k = material.conductivity(c.solver.stop_temperature);
     const double cooling =
         heat_input(c.procedure) / (2 * std::numbers::pi * k * (c.solver.stop_temperature - c.temperatures.preheat));
     e.simulated_time = std::min(c.solver.time_limit, c.joint.weld_length / c.procedure.travel_speed + std::max(0.0, cooling));
-    e.explicit_step = stable_explicit_step(grid, en1993::max_diffusivity());
+    e.explicit_step = stable_explicit_step(grid, material.max_diffusivity());
     e.steps = e.simulated_time / e.explicit_step;
     e.cell_updates = e.steps * static_cast<double>(grid.solid_cells());
     e.seconds = e.cell_updates / assumed_cell_updates_per_second;

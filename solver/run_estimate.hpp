@@ -3,6 +3,7 @@
 
 #include "mesh/grid.hpp"
 #include "solver/case.hpp"
+#include "solver/material.hpp"
 
 namespace heatbead {
 
@@ -32,6 +33,6 @@ struct RunEstimate {
 // Assumed speed of the explicit reference update on one of these 2-core machines, until
 // `heatbead bench` measures it: a figure for planning only.
 inline constexpr double assumed_cell_updates_per_second = 1.5e8;
-RunEstimate estimate_run(const Case& c, const mesh::Grid& grid);
+RunEstimate estimate_run(const Case& c, const mesh::Grid& grid, const Material& material);
 
 }  // namespace heatbead

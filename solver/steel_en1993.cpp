@@ -17,10 +17,4 @@ double specific_heat(double theta) {
     return 650.0;
 }
 
-double max_diffusivity() {
-    double best = 0;
-    for (double t = 20.0; t <= 1200.0; t += 1.0) best = std::max(best, conductivity(t) / (density * specific_heat(t)));
-    return best;
-}
-
 }  // namespace heatbead::en1993

@@ -17,7 +17,4 @@ double conductivity(double theta);
 // The peak near 735 °C stands for the latent heat of the ferrite–austenite change.
 double specific_heat(double theta);
 
-// Largest thermal diffusivity λ/(ρc) over 20–1200 °C [m²/s]: sets the explicit stable step.
-double max_diffusivity();
-
 }  // namespace heatbead::en1993

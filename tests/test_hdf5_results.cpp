@@ -1,5 +1,7 @@
 // Tests of post/hdf5_results: what the writer puts in the file is read back through the HDF5
 // library's own C API (and listed by h5dump when it is installed), never through our writer's code.
+#include "tests/temp_folder.hpp"
+
 #include <catch2/catch.hpp>
 
 #include <algorithm>
@@ -55,17 +57,10 @@ double marker(std::size_t i, std::size_t j, std::size_t k) {
     return 1000.0 + 100.0 * static_cast<double>(i) + static_cast<double>(j) + 1e-3 * static_cast<double>(k);
 }
 
-// A folder of its own under the system temporary folder, removed with everything in it.
-struct Scratch {
-    fs::path dir;
-    explicit Scratch(const std::string& tag)
-        : dir(fs::temp_directory_path() / ("heatbead_test_hdf5_" + tag + "_" + std::to_string(::getpid()))) {
-        fs::remove_all(dir);
-        fs::create_directories(dir);
-    }
-    ~Scratch() { fs::remove_all(dir); }
-    Scratch(const Scratch&) = delete;
-    Scratch& operator=(const Scratch&) = delete;
+// A temporary folder that can list what is in it.
+struct Scratch : heatbead::testing::TempFolder {
+    explicit Scratch(const std::string& tag) : TempFolder("hdf5_" + tag), dir(path) {}
+    const fs::path& dir;
 
     std::set<std::string> entries() const {
         std::set<std::string> names;

@@ -16,6 +16,8 @@
 #include "solver/run_setup.hpp"
 #include "solver/simulation.hpp"
 
+#include "tests/temp_folder.hpp"
+
 #include <catch2/catch.hpp>
 
 #include <algorithm>
@@ -87,21 +89,7 @@ struct CoarseRun {
     }
 };
 
-// A folder in the temporary directory, removed again when the test ends.
-struct TempDir {
-    fs::path path;
-    explicit TempDir(const std::string& tag)
-        : path(fs::temp_directory_path() / ("heatbead_test_run_" + tag + "_" + std::to_string(::getpid()))) {
-        fs::remove_all(path);
-        fs::create_directories(path);
-    }
-    ~TempDir() {
-        std::error_code ignored;
-        fs::remove_all(path, ignored);
-    }
-    TempDir(const TempDir&) = delete;
-    TempDir& operator=(const TempDir&) = delete;
-};
+using TempDir = heatbead::testing::TempFolder;
 
 }  // namespace
 
