@@ -2,6 +2,7 @@
 
 #include "mesh/grid.hpp"
 #include "post/hdf5_results.hpp"
+#include "post/station_metrics.hpp"
 #include "solver/check.hpp"
 #include "solver/exit_codes.hpp"
 #include "solver/procedure.hpp"
@@ -113,6 +114,12 @@ int run_command(const LoadedCase& loaded, const RunOptions& options) {
                     std::abs(error) > 0.01 ? "  ** ABOVE 1 % **" : "");
         std::printf("Hottest     %.0f degC at the end; run time %.2f s on %d threads\n", result.max_temperature, wall,
                     omp_get_max_threads());
+        const auto m = post::station_metrics(grid, sim.cells(), sim.history(), c.output.station, c.base.solidus);
+        char penetration[32] = "none", t85[32] = "n/a";
+        if (m.penetration) std::snprintf(penetration, sizeof penetration, "%.2f mm", *m.penetration * 1e3);
+        if (m.t8_5) std::snprintf(t85, sizeof t85, "%.2f s", *m.t8_5);
+        std::printf("Station     x = %.1f mm: flange penetration %s, HAZ t8/5 (median of %zu cells) %s\n",
+                    c.output.station * 1e3, penetration, m.haz_cells, t85);
         for (const auto& w : c.warnings) std::printf("Warning     %s\n", w.c_str());
         std::printf("Files       %s\n", results_file.string().c_str());
         std::printf("Caution     %s\n", planning_caution);
