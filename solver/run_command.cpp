@@ -2,7 +2,8 @@
 
 #include "mesh/grid.hpp"
 #include "post/hdf5_results.hpp"
-#include "post/station_metrics.hpp"
+#include "post/atomic_file.hpp"
+#include "solver/run_analysis.hpp"
 #include "solver/check.hpp"
 #include "solver/exit_codes.hpp"
 #include "solver/procedure.hpp"
@@ -10,6 +11,7 @@
 #include "solver/run_estimate.hpp"
 #include "solver/run_setup.hpp"
 
+#include <algorithm>
 #include <chrono>
 #include <cmath>
 #include <csignal>
@@ -28,8 +30,14 @@ namespace {
 
 extern "C" void on_signal(int) { interrupt_flag().store(true); }
 
+std::size_t station_slice(const mesh::Grid& grid, double station) {
+    const auto& f = grid.x.faces;
+    const auto i = static_cast<std::size_t>(std::upper_bound(f.begin(), f.end(), station) - f.begin());
+    return std::clamp<std::size_t>(i, 1, grid.x.cells()) - 1;
+}
+
 post::RunRecord make_record(const Simulation& sim, const LoadedCase& loaded, const RunResult& result,
-                            std::vector<std::vector<double>>& keep) {
+                            const RunAnalysis& analysis) {
     post::RunRecord rec;
     rec.grid = &sim.grid();
     rec.cells = &sim.cells();
@@ -42,9 +50,9 @@ post::RunRecord make_record(const Simulation& sim, const LoadedCase& loaded, con
                               "last time the cell cooled through " + std::to_string(level) + " degC (NaN: never)",
                               h.last_below(n)});
     }
-    keep.emplace_back(sim.temperature().begin(), sim.temperature().end());
-    rec.fields.push_back({"final_temperature", "degC", "temperature when the run stopped", keep.back()});
-    for (const auto& p : sim.probes()) rec.probes.push_back({p.name, p.position, p.time, p.temperature});
+    rec.fields.push_back({"t8_5", "s", "cooling time from 800 to 500 degC (NaN: did not pass both)", analysis.t8_5});
+    rec.fields.push_back({"final_temperature", "degC", "temperature when the run stopped", sim.temperature()});
+    for (const auto& p : analysis.probes) rec.probes.push_back({p.name, p.position, p.time, p.temperature});
     const Case& c = loaded.value;
     const auto& e = result.energy;
     rec.scalars = {
@@ -80,6 +88,8 @@ int run_command(const LoadedCase& loaded, const RunOptions& options) {
     const Material material = make_material(c.base);
     Simulation sim(grid, material, make_losses(c), make_passes(c), make_settings(c));
     for (std::size_t i = 0; i < c.output.probes.size(); ++i) sim.add_probe("user_" + std::to_string(i + 1), c.output.probes[i]);
+    post::SectionHistory station(sim.cells(), station_slice(grid, c.output.station), c.temperatures.preheat);
+    sim.add_observer([&](double t, std::span<const double> T) { station.record(t, T); });
 
     const RunEstimate estimate = estimate_run(c, grid, material);
     ProgressPrinter progress(options.quiet, estimate.simulated_time);
@@ -94,34 +104,35 @@ int run_command(const LoadedCase& loaded, const RunOptions& options) {
         return exit_code::run_failed;
     }
 
-    std::vector<std::vector<double>> keep;
-    const auto results_file = out / "results.h5";
-    post::write_hdf5_results(results_file, make_record(sim, loaded, result, keep));
+    const RunAnalysis analysis = analyse_run(c, sim, station);
+    const post::Summary summary = make_summary(c, result, analysis, wall);
+    std::vector<std::string> written;
+    const auto wants = [&](std::string_view kind) {
+        return std::find(c.output.files.begin(), c.output.files.end(), kind) != c.output.files.end();
+    };
+    if (wants("hdf5")) {
+        const auto file = out / "results.h5";
+        post::write_hdf5_results(file, make_record(sim, loaded, result, analysis));
+        written.push_back(file.string());
+    }
+    if (wants("summary")) {
+        post::write_file_atomically(out / "summary.json", summary.to_json());
+        post::write_file_atomically(out / "summary.csv", summary.to_csv());
+        written.push_back((out / "summary.json").string() + ", summary.csv");
+    }
 
     const double error = result.energy.error();
     if (!options.quiet) {
-        std::printf("heatbead run  %s\n", c.file.c_str());
-        std::printf("Heat input  %.3f kJ/mm (net power %.0f W at %.2f mm/s)\n", heat_input(c.procedure) * 1e-6,
-                    net_power(c.procedure), c.procedure.travel_speed * 1e3);
-        std::printf("Grid        %zu solid cells (%zu x %zu x %zu grid), finest %.2f mm\n", sim.cells().size(),
-                    grid.x.cells(), grid.y.cells(), grid.z.cells(), c.grid.cross_section.finest * 1e3);
-        std::printf("Material    %s\n", material.description().c_str());
-        std::printf("Integrator  %s: %zu steps (%zu rejected), %zu stages, %.3g cell updates\n",
-                    c.solver.integrator.c_str(), result.steps, result.rejected, result.stages, result.cell_updates);
-        std::printf("Stopped     at %.1f s: %s\n", result.end_time, result.stop_reason.c_str());
-        std::printf("Energy      arc %.1f kJ = stored %.1f kJ + lost %.1f kJ; balance error %+.3f %%%s\n",
-                    result.energy.arc * 1e-3, result.energy.stored * 1e-3, result.energy.lost * 1e-3, error * 100,
-                    std::abs(error) > 0.01 ? "  ** ABOVE 1 % **" : "");
-        std::printf("Hottest     %.0f degC at the end; run time %.2f s on %d threads\n", result.max_temperature, wall,
-                    omp_get_max_threads());
-        const auto m = post::station_metrics(grid, sim.cells(), sim.history(), c.output.station, c.base.solidus);
-        char penetration[32] = "none", t85[32] = "n/a";
-        if (m.penetration) std::snprintf(penetration, sizeof penetration, "%.2f mm", *m.penetration * 1e3);
-        if (m.t8_5) std::snprintf(t85, sizeof t85, "%.2f s", *m.t8_5);
-        std::printf("Station     x = %.1f mm: flange penetration %s, HAZ t8/5 (median of %zu cells) %s\n",
-                    c.output.station * 1e3, penetration, m.haz_cells, t85);
+        std::printf("heatbead run  %s  (%zu solid cells, %s, %zu steps, stopped at %.1f s: %s)\n", c.file.c_str(),
+                    sim.cells().size(), c.solver.integrator.c_str(), result.steps, result.end_time,
+                    result.stop_reason.c_str());
+        std::printf("%s", summary.to_text().c_str());
+        if (std::abs(error) > 0.01) std::printf("Energy      ** BALANCE ERROR ABOVE 1 %% **\n");
+        if (material.parameters().liquid_conductivity_factor > 1) {
+            std::printf("Material    %s\n", material.description().c_str());
+        }
         for (const auto& w : c.warnings) std::printf("Warning     %s\n", w.c_str());
-        std::printf("Files       %s\n", results_file.string().c_str());
+        for (const auto& f : written) std::printf("Files       %s\n", f.c_str());
         std::printf("Caution     %s\n", planning_caution);
     }
     if (std::abs(error) > 0.01) {

@@ -56,8 +56,10 @@ void Simulation::add_probe(std::string name, const std::array<double, 3>& p) {
 
 void Simulation::birth(const Pass& pass, const TorchPath& path, double t) {
     // Weld metal exists where the arc has been: cells whose centre the ellipsoid origin has passed.
+    // It arrives molten, at the liquidus; the heat that took it there is the filler's share of the
+    // arc power, taken off the source for the whole pass (filler_power).
     const double x_arc = path.origin(t)[0];
-    const double T0 = settings_.initial_temperature, H0 = material_.enthalpy(T0);
+    const double T_birth = material_.parameters().liquidus, H_birth = material_.enthalpy(T_birth);
     if (pass.side == 0) return;
     for (std::size_t i = 0; i < cells_.nx && grid_.x.centre(i) <= x_arc; ++i) {
         for (std::size_t s = 0; s < cells_.ns; ++s) {
@@ -65,11 +67,30 @@ void Simulation::birth(const Pass& pass, const TorchPath& path, double t) {
             const std::size_t c = cells_.index(i, s);
             if (active_[c]) continue;
             active_[c] = 1;
-            H_[c] = H_old_[c] = H0;
-            T_[c] = T_old_[c] = T0;
+            H_[c] = H_old_[c] = H_birth;
+            T_[c] = T_old_[c] = T_birth;
             born_.push_back(c);
         }
     }
+}
+
+double Simulation::filler_power(const Pass& pass, const TorchPath& path) const {
+    // The heat to bring this pass's weld metal from the initial temperature to the liquidus,
+    // spread evenly over the arc time: the weld metal is fed at a steady rate.
+    const double dH = material_.enthalpy(material_.parameters().liquidus) - material_.enthalpy(settings_.initial_temperature);
+    double energy = 0;
+    for (std::size_t s = 0; s < cells_.ns; ++s) {
+        if (pass.side == 0 || weld_side_[s] != pass.side) continue;
+        for (std::size_t i = 0; i < cells_.nx; ++i) energy += op_.volume(cells_.index(i, s)) * dH;
+    }
+    const double power = energy / (path.off_time - path.on_time);
+    if (power >= pass.net_power) {
+        throw std::invalid_argument("the weld metal alone needs more heat than the arc gives (" +
+                                    std::to_string(static_cast<int>(power)) + " W of " +
+                                    std::to_string(static_cast<int>(pass.net_power)) +
+                                    " W): check the legs against the current and travel speed");
+    }
+    return power;
 }
 
 double Simulation::max_temperature() const {
@@ -102,6 +123,7 @@ RunResult Simulation::run(const std::atomic<bool>& interrupt, const ProgressFn& 
     std::optional<TorchPath> path = passes_[0].path(0.0);
     std::optional<DoubleEllipsoid> source(std::in_place, *path, passes_[0].shape, passes_[0].net_power);
     result.pass_start.push_back(0.0);
+    double filler_power = this->filler_power(passes_[0], *path);
 
     double t = 0, dt = ctl.first_step, stable = 0;
     double hottest = settings_.initial_temperature;  // hottest active cell after the last step
@@ -124,6 +146,7 @@ RunResult Simulation::run(const std::atomic<bool>& interrupt, const ProgressFn& 
                 ++p;
                 path = next.path(t);
                 source.emplace(*path, next.shape, next.net_power);
+                filler_power = this->filler_power(next, *path);
                 result.pass_start.push_back(t);
                 phase = Phase::welding;
                 dt = std::min(dt, ctl.first_step);
@@ -165,6 +188,8 @@ RunResult Simulation::run(const std::atomic<bool>& interrupt, const ProgressFn& 
             if (phase == Phase::welding) {
                 birth(passes_[p], *path, mid);
                 source->deposit(grid_, cells_, active_, mid, source_);
+                const double scale = 1 - filler_power / passes_[p].net_power;
+                for (auto& q : source_) q.watts *= scale;
             }
             const std::size_t reach = (stable > 0 ? integrator_->stages(std::min(dt, integrator_->max_step(stable)), stable) : 1) + 2;
             op_.prepare(T_, active_, source_, skip_temperature, reach);
@@ -213,7 +238,9 @@ RunResult Simulation::run(const std::atomic<bool>& interrupt, const ProgressFn& 
         }
         result.energy.lost += lost;
         for (const auto& q : source_) result.energy.deposited += q.watts * dt;
+        if (phase == Phase::welding) result.energy.filler += filler_power * dt;
         t += dt;
+        for (const auto& observe : observers_) observe(t, T_);
         ++result.steps;
         result.stages += stages;
         result.cell_updates += static_cast<double>(stages) * static_cast<double>(r.end - r.begin);

@@ -1,9 +1,9 @@
 // One run: the arc passes (one bead, or two with an interpass wait), then the joint cools until
 // every solid cell is below the stop temperature or the time limit is reached.
 //
-// Each step: weld metal the arc has passed is born (void → solid at the initial temperature;
-// the heat that brings it up to temperature comes out of the arc's net power, so the energy
-// balance has no separate filler term); the source is deposited at mid-step; the operator is
+// Each step: weld metal the arc has passed is born (void → solid, molten at the liquidus; the
+// heat that took it there is the filler's steady share of the arc's net power, taken off the
+// source, so arc energy = stored + lost still holds); the source is deposited at mid-step; the operator is
 // lagged; the integrator advances H; the step is accepted if no cell changed by more than twice
 // the allowed change, else halved and retried; observers record the accepted step.
 #pragma once
@@ -57,7 +57,8 @@ struct RunSettings {
 
 struct EnergyBalance {
     double arc = 0;        // J: net power × arc time
-    double deposited = 0;  // J the discretised source put into cells (equals `arc` when renormalised)
+    double deposited = 0;  // J the discretised source put into cells
+    double filler = 0;     // J the born weld metal brought (deposited + filler = arc)
     double stored = 0;   // J: Σ V (H − H(T0)) over solid cells at the end
     double lost = 0;     // J through free surfaces
     double error() const { return arc > 0 ? (arc - stored - lost) / arc : 0.0; }
@@ -92,6 +93,10 @@ public:
     // Adds a probe at a point inside the solid (the cell containing it). Throws if outside.
     void add_probe(std::string name, const std::array<double, 3>& position);
 
+    // Called after every accepted step with the time and the temperature of every solid cell.
+    using StepObserver = std::function<void(double t, std::span<const double> T)>;
+    void add_observer(StepObserver observer) { observers_.push_back(std::move(observer)); }
+
     // Runs to the stop rule; `interrupt` is polled every step.
     RunResult run(const std::atomic<bool>& interrupt, const ProgressFn& progress = {});
 
@@ -105,6 +110,7 @@ public:
 private:
     void birth(const Pass& pass, const TorchPath& path, double t);
     double max_temperature() const;
+    double filler_power(const Pass& pass, const TorchPath& path) const;
     double stored_energy() const;
 
     const mesh::Grid& grid_;
@@ -120,6 +126,7 @@ private:
     std::vector<int> weld_side_;  // per section cell: +1 / −1 for weld metal by side, 0 otherwise
     post::ThermalHistory history_;
     std::vector<Probe> probes_;
+    std::vector<StepObserver> observers_;
     std::vector<CellPower> source_;
     std::vector<std::size_t> born_;  // cells born during the current step
 };

@@ -1,0 +1,140 @@
+#include "solver/run_analysis.hpp"
+
+#include "solver/metallurgy.hpp"
+#include "solver/procedure.hpp"
+
+#include <algorithm>
+#include <cmath>
+#include <limits>
+
+namespace heatbead {
+
+namespace {
+
+constexpr double nan = std::numeric_limits<double>::quiet_NaN();
+
+// Without a composition, HAZ boundaries come from a typical structural C–Mn steel
+// (C 0.20, Mn 1.40, Si 0.30: invented for this purpose, within usual product limits).
+Composition assumed_composition() {
+    Composition c;
+    c.C = 0.20, c.Mn = 1.40, c.Si = 0.30;
+    return c;
+}
+
+// The fusion-line point deepest into the flange (lowest z below the top face) and the one
+// deepest into the web (furthest beyond the web face, on the bead's side), in (y, z).
+struct DeepestPoints {
+    std::optional<std::array<double, 2>> flange, web;
+};
+
+DeepestPoints deepest_points(const std::vector<post::Polyline>& fusion, double web_face, int side) {
+    DeepestPoints d;
+    for (const auto& line : fusion) {
+        for (const auto& p : line.points) {
+            if (p[1] < 0 && (!d.flange || p[1] < (*d.flange)[1])) d.flange = p;
+            const double into_web = side * (web_face - p[0]);
+            if (p[1] > 0 && into_web > 0 && (!d.web || into_web > side * (web_face - (*d.web)[0]))) d.web = p;
+        }
+    }
+    return d;
+}
+
+ProbeResult probe_from_cycle(std::string name, std::array<double, 3> at, std::vector<double> time,
+                             std::vector<double> temperature, double ac1) {
+    ProbeResult p{std::move(name), at, std::move(time), std::move(temperature), {}};
+    if (!p.temperature.empty()) p.figures = post::cycle_figures(p.time, p.temperature, ac1);
+    return p;
+}
+
+}  // namespace
+
+RunAnalysis analyse_run(const Case& c, const Simulation& sim, const post::SectionHistory& station) {
+    RunAnalysis a;
+    const Composition comp = c.base.composition.value_or(assumed_composition());
+    a.composition_assumed = !c.base.composition;
+    a.ac1 = andrews_ac1(comp), a.ac3 = andrews_ac3(comp);
+    const post::SectionLevels levels{c.base.solidus, a.ac1, a.ac3};
+    const auto& grid = sim.grid();
+    const auto& peak = sim.history().peak();
+    a.section = post::measure_cross_section(c.joint, grid, sim.cells(), peak, c.output.station, 1, levels);
+    a.along = post::along_weld(c.joint, grid, sim.cells(), peak, 5e-3, 1, levels);
+    a.t8_5 = sim.history().cooling_time(0, 1);
+
+    // Automatic probes at the station: on the fusion line where it reaches deepest into each
+    // plate, then 0.5, 1 and 2 mm further into that plate (normal to it), and at the root.
+    const double x = grid.x.centre(station.slice());
+    const double web_face = c.joint.web_face(1);
+    const auto deepest = deepest_points(a.section.fusion_line, web_face, 1);
+    const auto add = [&](const std::string& name, double y, double z) {
+        auto cycle = station.cycle_at(grid, y, z);
+        if (!cycle.empty()) a.probes.push_back(probe_from_cycle(name, {x, y, z}, station.times(), std::move(cycle), a.ac1));
+    };
+    const auto mm = [](double v) {
+        char buf[16];
+        std::snprintf(buf, sizeof buf, "%.1f", v * 1e3);
+        return std::string(buf);
+    };
+    if (deepest.flange) {
+        const auto [y, z] = *deepest.flange;
+        add("fusion_flange", y, z);
+        for (double d : haz_probe_offsets) add("haz_flange_" + mm(d) + "mm", y, z - d);
+    }
+    if (deepest.web) {
+        const auto [y, z] = *deepest.web;
+        add("fusion_web", y, z);
+        for (double d : haz_probe_offsets) add("haz_web_" + mm(d) + "mm", y - d, z);
+    }
+    add("root", web_face, 0.0);
+    for (const auto& p : sim.probes()) a.probes.push_back(probe_from_cycle(p.name, p.position, p.time, p.temperature, a.ac1));
+    return a;
+}
+
+post::Summary make_summary(const Case& c, const RunResult& result, const RunAnalysis& a, double wall) {
+    post::Summary s;
+    const auto& x = a.section;
+    const auto num = [&](std::string group, std::string key, std::string label, double value, std::string unit,
+                         int decimals = 2) {
+        s.add({std::move(group), std::move(key), std::move(label), value, std::move(unit), decimals, ""});
+    };
+    const auto word = [&](std::string group, std::string key, std::string label, std::string text) {
+        s.add({std::move(group), std::move(key), std::move(label), std::nullopt, "", 0, std::move(text)});
+    };
+    num("Heat input", "heat_input", "heat input", heat_input(c.procedure) * 1e-6, "kJ/mm", 3);
+    num("Heat input", "net_power", "net power", net_power(c.procedure), "W", 0);
+    num("Fusion", "penetration_flange", "penetration flange", x.penetration_flange * 1e3, "mm");
+    num("Fusion", "penetration_web", "web", x.penetration_web * 1e3, "mm");
+    num("Fusion", "fused_leg_flange", "legs flange", x.fused_leg_flange * 1e3, "mm", 1);
+    num("Fusion", "fused_leg_web", "web", x.fused_leg_web * 1e3, "mm", 1);
+    num("Throat", "design_throat", "design", x.design_throat * 1e3, "mm");
+    num("Throat", "actual_throat", "actual", x.actual_throat * 1e3, "mm");
+    word("Throat", "root_fused", "root fused", x.root_fused ? "yes" : "NO");
+    num("Areas", "fused_area", "fused", x.fused_area * 1e6, "mm2", 1);
+    num("Areas", "deposited_area", "deposited", x.deposited_area * 1e6, "mm2", 1);
+    num("Areas", "dilution", "dilution", x.dilution * 100, "%", 0);
+    num("HAZ", "haz_width_flange", "width flange", x.haz_width_flange * 1e3, "mm");
+    num("HAZ", "haz_width_web", "web", x.haz_width_web * 1e3, "mm");
+    num("HAZ", "ac1", "Ac1", a.ac1, "degC", 0);
+    num("HAZ", "ac3", "Ac3", a.ac3, "degC", 0);
+    // t8/5 and cooling rate over the HAZ probes (not the fusion-line ones beyond the HAZ).
+    double lo = nan, hi = nan, rate = nan;
+    for (const auto& p : a.probes) {
+        if (p.name.rfind("haz_", 0) != 0 || std::isnan(p.figures.t8_5)) continue;
+        lo = std::isnan(lo) ? p.figures.t8_5 : std::min(lo, p.figures.t8_5);
+        hi = std::isnan(hi) ? p.figures.t8_5 : std::max(hi, p.figures.t8_5);
+        rate = std::isnan(rate) ? p.figures.rate_540 : std::max(rate, p.figures.rate_540);
+    }
+    num("Cooling", "t8_5_min", "t8/5 from", lo, "s");
+    num("Cooling", "t8_5_max", "to", hi, "s");
+    num("Cooling", "cooling_rate_540", "fastest rate at 540 degC", rate, "K/s", 0);
+    num("Energy", "energy_balance_error", "balance error", result.energy.error() * 100, "%", 3);
+    num("Energy", "end_time", "stopped at", result.end_time, "s", 1);
+    num("Energy", "run_time", "run time", wall, "s", 1);
+    if (x.lack_of_fusion_flange) s.add_note("Fusion", "LACK OF FUSION into the flange predicted");
+    if (x.lack_of_fusion_web) s.add_note("Fusion", "LACK OF FUSION into the web predicted");
+    if (a.composition_assumed) {
+        s.add_note("HAZ", "no composition in the case: Ac1/Ac3 from a typical C-Mn steel (C 0.20, Mn 1.40, Si 0.30)");
+    }
+    return s;
+}
+
+}  // namespace heatbead

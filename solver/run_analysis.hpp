@@ -1,0 +1,41 @@
+// What a run means to a welding engineer: the cross-section measured like a macro-etch, thermal
+// cycles at probes on and beyond the fusion line, and the summary shown on screen and in files.
+#pragma once
+
+#include "post/cross_section.hpp"
+#include "post/section_history.hpp"
+#include "post/summary.hpp"
+#include "solver/case.hpp"
+#include "solver/simulation.hpp"
+
+#include <array>
+#include <string>
+#include <vector>
+
+namespace heatbead {
+
+struct ProbeResult {
+    std::string name;
+    std::array<double, 3> position;  // m
+    std::vector<double> time, temperature;
+    post::CycleFigures figures;
+};
+
+struct RunAnalysis {
+    double ac1 = 0, ac3 = 0;           // °C
+    bool composition_assumed = false;  // no composition in the case: a typical one was used
+    post::CrossSection section;        // at the station
+    std::vector<post::CrossSection> along;  // every few mm along the weld
+    std::vector<ProbeResult> probes;   // automatic ones at the station, then the user's
+    std::vector<double> t8_5;          // per solid cell, NaN where not defined
+};
+
+// Probe offsets into the HAZ beyond the fusion line, normal to each plate [m].
+inline constexpr std::array<double, 3> haz_probe_offsets{0.5e-3, 1e-3, 2e-3};
+
+RunAnalysis analyse_run(const Case& c, const Simulation& sim, const post::SectionHistory& station);
+
+// Every number of the screen summary, with units (the same items go to JSON and CSV).
+post::Summary make_summary(const Case& c, const RunResult& result, const RunAnalysis& analysis, double wall_seconds);
+
+}  // namespace heatbead
