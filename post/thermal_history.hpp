@@ -21,6 +21,11 @@ public:
     void record(double t0, std::span<const double> T0, double t1, std::span<const double> T1, std::size_t begin,
                 std::size_t end);
 
+    // A cell that appears at temperature T at time t (weld metal born molten) has peaked at least there.
+    void appear(std::size_t cell, double t, double T) {
+        if (T > peak_[cell]) peak_[cell] = T, time_of_peak_[cell] = t;
+    }
+
     const std::vector<double>& peak() const { return peak_; }
     const std::vector<double>& time_of_peak() const { return time_of_peak_; }
     // Last time the cell cooled through levels[n]; NaN if it never did.

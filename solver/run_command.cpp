@@ -3,7 +3,9 @@
 #include "mesh/grid.hpp"
 #include "post/hdf5_results.hpp"
 #include "post/atomic_file.hpp"
+#include "post/vtk_output.hpp"
 #include "solver/run_analysis.hpp"
+#include "solver/run_files.hpp"
 #include "solver/check.hpp"
 #include "solver/exit_codes.hpp"
 #include "solver/procedure.hpp"
@@ -17,6 +19,7 @@
 #include <csignal>
 #include <cstdio>
 #include <filesystem>
+#include <optional>
 #include <omp.h>
 
 namespace heatbead {
@@ -90,6 +93,22 @@ int run_command(const LoadedCase& loaded, const RunOptions& options) {
     for (std::size_t i = 0; i < c.output.probes.size(); ++i) sim.add_probe("user_" + std::to_string(i + 1), c.output.probes[i]);
     post::SectionHistory station(sim.cells(), station_slice(grid, c.output.station), c.temperatures.preheat);
     sim.add_observer([&](double t, std::span<const double> T) { station.record(t, T); });
+    const auto wants = [&](std::string_view kind) {
+        return std::find(c.output.files.begin(), c.output.files.end(), kind) != c.output.files.end();
+    };
+    // Temperature snapshots go to a folder that only gets its final name once the run completed.
+    const auto series_dir = out / "temperature_series", series_partial = out / "temperature_series.partial";
+    std::optional<post::VtkSeries> series;
+    double next_snapshot = 0;
+    if (wants("vtk")) {
+        std::filesystem::remove_all(series_partial);
+        series.emplace(series_partial, "temperature");
+        sim.add_observer([&](double t, std::span<const double> T) {
+            if (t + 1e-12 < next_snapshot) return;
+            series->add(t, grid, sim.cells(), sim.active(), {{"temperature", T}});
+            next_snapshot = t + c.output.snapshot_interval;
+        });
+    }
 
     const RunEstimate estimate = estimate_run(c, grid, material);
     ProgressPrinter progress(options.quiet, estimate.simulated_time);
@@ -99,6 +118,8 @@ int run_command(const LoadedCase& loaded, const RunOptions& options) {
     const double wall = std::chrono::duration<double>(std::chrono::steady_clock::now() - start).count();
     progress.finish();
     if (!result.completed || interrupt_flag().load()) {
+        std::filesystem::remove_all(series_partial);
+        if (std::filesystem::is_empty(out)) std::filesystem::remove(out);
         std::fprintf(stderr, "heatbead: run %s at t = %.2f s; nothing was written\n",
                      interrupt_flag().load() ? "interrupted" : result.stop_reason.c_str(), result.end_time);
         return exit_code::run_failed;
@@ -107,9 +128,6 @@ int run_command(const LoadedCase& loaded, const RunOptions& options) {
     const RunAnalysis analysis = analyse_run(c, sim, station);
     const post::Summary summary = make_summary(c, result, analysis, wall);
     std::vector<std::string> written;
-    const auto wants = [&](std::string_view kind) {
-        return std::find(c.output.files.begin(), c.output.files.end(), kind) != c.output.files.end();
-    };
     if (wants("hdf5")) {
         const auto file = out / "results.h5";
         post::write_hdf5_results(file, make_record(sim, loaded, result, analysis));
@@ -119,6 +137,22 @@ int run_command(const LoadedCase& loaded, const RunOptions& options) {
         post::write_file_atomically(out / "summary.json", summary.to_json());
         post::write_file_atomically(out / "summary.csv", summary.to_csv());
         written.push_back((out / "summary.json").string() + ", summary.csv");
+    }
+
+    if (series) {
+        series->finish();
+        std::filesystem::remove_all(series_dir);
+        std::filesystem::rename(series_partial, series_dir);
+        write_vtk_results(out, c, sim, analysis);
+        written.push_back((series_dir / "temperature.pvd").string() + ", fields.vtu, section_lines.vtp");
+    }
+    if (wants("report")) {
+        std::vector<std::string> notes;
+        if (analysis.section.lack_of_fusion_flange) notes.push_back("lack of fusion into the flange predicted");
+        if (analysis.section.lack_of_fusion_web) notes.push_back("lack of fusion into the web predicted");
+        if (!analysis.section.root_fused) notes.push_back("the root is not fused");
+        post::write_report(out / "report.html", make_report_input(c, sim, analysis, summary, notes));
+        written.push_back((out / "report.html").string());
     }
 
     const double error = result.energy.error();

@@ -69,6 +69,7 @@ void Simulation::birth(const Pass& pass, const TorchPath& path, double t) {
             active_[c] = 1;
             H_[c] = H_old_[c] = H_birth;
             T_[c] = T_old_[c] = T_birth;
+            history_.appear(c, t, T_birth);
             born_.push_back(c);
         }
     }

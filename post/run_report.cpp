@@ -1,0 +1,246 @@
+#include "post/run_report.hpp"
+
+#include "post/atomic_file.hpp"
+#include "post/svg_plot.hpp"
+
+#include <algorithm>
+#include <cmath>
+#include <limits>
+#include <stdexcept>
+
+namespace heatbead::post {
+
+namespace {
+
+constexpr const char* standard_caution =
+    "Predictions are estimates for planning. Fusion and soundness are proven by procedure qualification "
+    "(macro-etch, hardness survey) under the governing welding code.";
+
+// Section lines: the fusion line is the strongest mark; the two HAZ lines differ in dash and colour so
+// they stay apart in grey print too.
+const Stroke plate_edge{"#6b6b6b", 1.0, ""};
+const Stroke bead_edge{"#9a7b3c", 1.0, ""};
+const Stroke fusion_stroke{"#8b1a1a", 2.6, ""};
+const Stroke ac3_stroke{"#c8641a", 1.8, "8 4"};
+const Stroke ac1_stroke{"#2f5f8a", 1.8, "2 3"};
+const Stroke dimension_stroke{"#111111", 1.0, ""};
+constexpr const char* plate_fill = "#d9d9d9";
+constexpr const char* bead_fill = "#f3e2bd";
+constexpr const char* band_fill = "#f4e4bc";
+
+// Probe colours, far apart in hue; past the last one the dash changes so lines stay distinguishable.
+constexpr const char* probe_colours[] = {"#1f4e79", "#b8322a", "#2e7d4f", "#7b3f98", "#c77c12", "#17808a", "#6b4f2a", "#b03a78"};
+
+std::vector<Point> in_mm(const std::vector<std::array<double, 2>>& points) {
+    std::vector<Point> out;
+    out.reserve(points.size());
+    for (const auto& p : points) out.push_back({p[0] * 1e3, p[1] * 1e3});
+    return out;
+}
+
+struct Box {
+    double y0 = std::numeric_limits<double>::infinity(), y1 = -y0, z0 = y0, z1 = -y0;
+    void add(const std::array<double, 2>& p) {
+        if (!std::isfinite(p[0]) || !std::isfinite(p[1])) return;
+        y0 = std::min(y0, p[0]), y1 = std::max(y1, p[0]), z0 = std::min(z0, p[1]), z1 = std::max(z1, p[1]);
+    }
+    void add(const std::vector<std::array<double, 2>>& points) {
+        for (const auto& p : points) add(p);
+    }
+    bool empty() const { return !(y1 >= y0 && z1 >= z0); }
+};
+
+// The view of both section figures, in m: the weld and its heat-affected zone with a margin, kept
+// within the plates, so a leg of a few millimetres is not lost on a flange many times wider. The same
+// view for both lets the reader lay the peak map over the section.
+Box section_view(const ReportInput& in) {
+    Box weld;
+    weld.add(in.bead.points);
+    for (const auto* lines : {&in.fusion_line, &in.haz_ac1_line, &in.haz_ac3_line})
+        for (const auto& c : *lines) weld.add(c.points);
+    for (const auto& d : in.dimensions) weld.add(d.from), weld.add(d.to);
+    Box plates;
+    for (const auto& p : in.plates) plates.add(p.points);
+    if (weld.empty()) weld = plates;
+    if (weld.empty() && in.peak_map.y_faces.size() >= 2 && in.peak_map.z_faces.size() >= 2) {
+        weld.add({in.peak_map.y_faces.front(), in.peak_map.z_faces.front()});
+        weld.add({in.peak_map.y_faces.back(), in.peak_map.z_faces.back()});
+    }
+    if (weld.empty()) return {0, 10e-3, 0, 10e-3};
+    const double pad = 0.25 * std::max(weld.y1 - weld.y0, weld.z1 - weld.z0) + 1.5e-3;
+    Box view{weld.y0 - pad, weld.y1 + pad, weld.z0 - pad, weld.z1 + pad};
+    if (!plates.empty()) {
+        const Box within{std::max(view.y0, plates.y0), std::min(view.y1, plates.y1), std::max(view.z0, plates.z0),
+                         std::min(view.z1, plates.z1)};
+        if (!within.empty()) view = within;
+    }
+    return view;
+}
+
+// Both section figures share size and side panel (legend or colour bar), so equal scaling gives
+// them the same millimetre ranges and the two can be compared point by point.
+SvgPlot section_plot(const std::string& id, const std::string& title, const Box& view) {
+    return SvgPlot(id, title, 660, 540, Axis{"y, across the flange", "mm", view.y0 * 1e3, view.y1 * 1e3},
+                   Axis{"z, up the web", "mm", view.z0 * 1e3, view.z1 * 1e3}, true, 170);
+}
+
+void draw_curves(SvgPlot& plot, const std::vector<Curve>& curves, const Stroke& stroke) {
+    for (const auto& c : curves) plot.polyline(in_mm(c.points), stroke);
+}
+
+// A note in the middle of an empty plot, so a missing figure reads as missing data, not as a fault.
+void note_in_middle(SvgPlot& plot, const std::string& note) {
+    plot.text({(plot.x_axis().lo + plot.x_axis().hi) / 2, (plot.y_axis().lo + plot.y_axis().hi) / 2}, note, Anchor::middle);
+}
+
+std::string section_figure(const ReportInput& in, const Box& view) {
+    SvgPlot plot = section_plot("figure-section-plot", "Weld cross-section to scale", view);
+    for (const auto& p : in.plates) plot.polygon(in_mm(p.points), plate_edge, plate_fill);
+    plot.polygon(in_mm(in.bead.points), bead_edge, bead_fill);
+    draw_curves(plot, in.haz_ac1_line, ac1_stroke);
+    draw_curves(plot, in.haz_ac3_line, ac3_stroke);
+    draw_curves(plot, in.fusion_line, fusion_stroke);
+    for (const auto& d : in.dimensions)
+        plot.dimension({d.from[0] * 1e3, d.from[1] * 1e3}, {d.to[0] * 1e3, d.to[1] * 1e3},
+                       d.label + ' ' + format_fixed(d.value, 2) + (d.unit.empty() ? "" : ' ' + d.unit), dimension_stroke);
+    std::vector<LegendEntry> legend;
+    if (!in.plates.empty()) legend.push_back({"plates", plate_edge, plate_fill});
+    if (!in.bead.points.empty()) legend.push_back({"bead asked for", bead_edge, bead_fill});
+    if (!in.fusion_line.empty()) legend.push_back({"fusion line", fusion_stroke, ""});
+    if (!in.haz_ac3_line.empty()) legend.push_back({"HAZ: Ac3 reached", ac3_stroke, ""});
+    if (!in.haz_ac1_line.empty()) legend.push_back({"HAZ: Ac1 reached", ac1_stroke, ""});
+    if (!in.dimensions.empty()) legend.push_back({"dimension", dimension_stroke, ""});
+    plot.legend(legend);
+    if (in.plates.empty() && in.bead.points.empty() && in.fusion_line.empty()) note_in_middle(plot, "no section recorded");
+    return plot.svg();
+}
+
+std::string cycles_figure(const ReportInput& in) {
+    double t_max = 0, T_min = 0, T_max = 0;
+    for (const auto& c : in.cycles) {
+        for (const double t : c.time)
+            if (std::isfinite(t)) t_max = std::max(t_max, t);
+        for (const double T : c.temperature)
+            if (std::isfinite(T)) T_min = std::min(T_min, T), T_max = std::max(T_max, T);
+    }
+    // Without data the axes still show the range a reader expects (the 800–500 °C band included).
+    if (!(t_max > 0)) t_max = 10;
+    T_max = std::max(T_max * 1.05, 1000.0);
+    SvgPlot plot("figure-cycles-plot", "Thermal cycles at the probes", 660, 420, Axis{"time", "s", 0, t_max},
+                 Axis{"temperature", "°C", T_min, T_max}, false, 190);
+    plot.band_y(500, 800, band_fill);
+    plot.text({t_max, 650}, "800–500 °C", Anchor::end, -6, 4);
+    std::vector<LegendEntry> legend;
+    for (std::size_t i = 0; i < in.cycles.size(); ++i) {
+        const Stroke s{probe_colours[i % std::size(probe_colours)], 1.8, i < std::size(probe_colours) ? "" : "7 3"};
+        std::vector<Point> points;
+        points.reserve(in.cycles[i].time.size());
+        for (std::size_t k = 0; k < in.cycles[i].time.size(); ++k)
+            points.push_back({in.cycles[i].time[k], in.cycles[i].temperature[k]});
+        plot.polyline(points, s);
+        legend.push_back({in.cycles[i].name, s, ""});
+    }
+    plot.legend(legend);
+    if (in.cycles.empty()) note_in_middle(plot, "no probe cycles recorded");
+    return plot.svg();
+}
+
+std::string peak_map_figure(const ReportInput& in, const Box& view) {
+    const SectionImage& map = in.peak_map;
+    double lo = std::numeric_limits<double>::infinity(), hi = -lo;
+    for (const double v : map.values)
+        if (std::isfinite(v)) lo = std::min(lo, v), hi = std::max(hi, v);
+    const bool any = hi >= lo;
+    if (!any) lo = 0, hi = 1;
+    SvgPlot plot = section_plot("figure-peak-map-plot", "Peak temperature on the cross-section", view);
+    const auto mm = [](const std::vector<double>& faces) {
+        std::vector<double> out(faces.size());
+        std::transform(faces.begin(), faces.end(), out.begin(), [](double f) { return f * 1e3; });
+        return out;
+    };
+    plot.cell_image(mm(map.y_faces), mm(map.z_faces), map.values, lo, hi);
+    // Plate edges and the fusion line in black, thin, so they read over every colour of the scale.
+    for (const auto& p : in.plates) plot.polygon(in_mm(p.points), {"#333333", 0.8, ""}, "");
+    draw_curves(plot, in.fusion_line, {"#000000", 1.6, ""});
+    plot.colour_bar(lo, hi, "peak temperature", map.unit.empty() ? "°C" : map.unit);
+    if (!any) note_in_middle(plot, "no peak temperatures recorded");
+    return plot.svg();
+}
+
+void validate(const ReportInput& in) {
+    for (const auto& c : in.cycles)
+        if (c.time.size() != c.temperature.size())
+            throw std::invalid_argument("report: cycle \"" + c.name + "\" has " + std::to_string(c.time.size()) +
+                                        " times but " + std::to_string(c.temperature.size()) + " temperatures");
+    const auto& m = in.peak_map;
+    const std::size_t cells = m.y_faces.size() >= 2 && m.z_faces.size() >= 2 ? (m.y_faces.size() - 1) * (m.z_faces.size() - 1) : 0;
+    if (m.values.size() != cells)
+        throw std::invalid_argument("report: peak map has " + std::to_string(m.values.size()) + " values for " +
+                                    std::to_string(cells) + " cells");
+}
+
+std::string table(const std::string& heading, const std::vector<std::pair<std::string, std::string>>& rows) {
+    std::string s = "<section class=\"table\"><h2>" + escape_html(heading) + "</h2>";
+    if (rows.empty()) return s + "<p>None recorded.</p></section>";
+    s += "<table><tbody>";
+    for (const auto& [name, value] : rows)
+        s += "<tr><th scope=\"row\">" + escape_html(name) + "</th><td>" + escape_html(value) + "</td></tr>";
+    return s + "</tbody></table></section>";
+}
+
+std::string figure(const std::string& id, const std::string& svg, const std::string& caption) {
+    return "<figure id=\"" + id + "\">" + svg + "<figcaption>" + escape_html(caption) + "</figcaption></figure>";
+}
+
+// The page's whole style: readable on screen and in print, figures scaling down on narrow screens.
+constexpr const char* style = R"(
+body{font-family:sans-serif;color:#222;margin:1.5em auto;max-width:1360px;padding:0 1em;line-height:1.4}
+h1{font-size:1.5em;margin:0 0 .2em}h2{font-size:1.15em;margin:1em 0 .4em}
+.meta{color:#555;margin:0 0 1em}
+.caution{border:2px solid #a15c00;background:#fff4e0;padding:.7em 1em;margin:1em 0;border-radius:4px}
+.warnings{border-left:4px solid #b8322a;background:#fcecea;padding:.4em 1em;margin:1em 0}
+.warnings h2{margin-top:.3em}
+.tables{display:flex;flex-wrap:wrap;gap:2em}
+table{border-collapse:collapse}th,td{border-bottom:1px solid #ddd;padding:.25em .8em;text-align:left;vertical-align:top}
+th{font-weight:normal;color:#444}td{font-variant-numeric:tabular-nums}
+.figures{display:flex;flex-wrap:wrap;gap:1.5em;margin-top:1.5em}
+figure{margin:0;flex:0 1 660px}figure svg{max-width:100%;height:auto;display:block}
+figcaption{font-size:.9em;color:#444;margin-top:.3em}
+)";
+
+}  // namespace
+
+std::string render_report(const ReportInput& in) {
+    validate(in);
+    const Box view = section_view(in);
+    std::string page = "<!DOCTYPE html>\n<html lang=\"en\">\n<head>\n<meta charset=\"utf-8\">\n<title>" +
+                       escape_html(in.title) + "</title>\n<style>" + style + "</style>\n</head>\n<body>\n";
+    page += "<header><h1>" + escape_html(in.title) + "</h1><p class=\"meta\">Case file: " + escape_html(in.case_file) +
+            " &#183; created " + escape_html(in.created) + "</p></header>\n";
+    page += "<div class=\"caution\" role=\"note\"><strong>Caution:</strong> " +
+            escape_html(in.caution.empty() ? standard_caution : in.caution) + "</div>\n";
+    if (!in.warnings.empty()) {
+        page += "<section class=\"warnings\"><h2>Warnings</h2><ul>";
+        for (const auto& w : in.warnings) page += "<li>" + escape_html(w) + "</li>";
+        page += "</ul></section>\n";
+    }
+    page += "<div class=\"tables\">" + table("Procedure", in.procedure) + table("Results", in.results) + "</div>\n";
+    page += "<div class=\"figures\">\n";
+    page += figure("figure-section", section_figure(in, view),
+                   "Cross-section to scale, cropped to the weld and its heat-affected zone (the plates go on "
+                   "beyond). The fusion line bounds the metal that melted; the HAZ lines bound the metal heated "
+                   "above Ac3 and above Ac1.") + "\n";
+    page += figure("figure-cycles", cycles_figure(in),
+                   "Temperature against time at each probe. The shaded band is 800 to 500 °C: the time a cycle "
+                   "spends crossing it on cooling is its t8/5.") + "\n";
+    page += figure("figure-peak-map", peak_map_figure(in, view),
+                   "Highest temperature each point of the cross-section reached during the pass, same view as the "
+                   "section; black: plate edges and the fusion line; blank: no metal (void).") + "\n";
+    return page + "</div>\n</body>\n</html>\n";
+}
+
+void write_report(const std::filesystem::path& path, const ReportInput& input) {
+    write_file_atomically(path, render_report(input));
+}
+
+}  // namespace heatbead::post

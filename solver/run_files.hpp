@@ -1,0 +1,21 @@
+// The optional files of a run: the HTML report and the VTK files, built from the analysis.
+#pragma once
+
+#include "post/run_report.hpp"
+#include "post/summary.hpp"
+#include "solver/case.hpp"
+#include "solver/run_analysis.hpp"
+#include "solver/simulation.hpp"
+
+#include <filesystem>
+
+namespace heatbead {
+
+post::ReportInput make_report_input(const Case& c, const Simulation& sim, const RunAnalysis& a,
+                                    const post::Summary& summary, const std::vector<std::string>& notes);
+
+// fields.vtu (peak temperature, time of peak, t8/5, final temperature) and section_lines.vtp
+// (fusion, Ac3 and Ac1 lines of the station) in `folder`.
+void write_vtk_results(const std::filesystem::path& folder, const Case& c, const Simulation& sim, const RunAnalysis& a);
+
+}  // namespace heatbead
