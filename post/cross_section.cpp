@@ -455,12 +455,26 @@ CrossSection measure_cross_section(const mesh::JointGeometry& joint, const mesh:
     cs.lack_of_fusion_web = cs.penetration_web <= 0;
 
     const Point root{frame.yw, 0.0};
-    const auto flange_leg = first_stretch(f, joint, root, {double(side), 0.0},
-                                          joint.flange_width / 2 - side * frame.yw, levels.solidus);
-    cs.fused_leg_flange = flange_leg ? flange_leg->end : 0.0;
-    const auto web_leg =
-        first_stretch(f, joint, root, {0.0, 1.0}, joint.root_gap + joint.web_height, levels.solidus);
-    cs.fused_leg_web = web_leg ? web_leg->end : 0.0;
+    // A leg is where the fused metal meets the plate surface, as a gauge reads it. Walk along the
+    // surface itself (which finds plate melted past the toe) and along the centres of the first
+    // row (column) of cells on the bead's side (which finds the bead, where the unmelted plate
+    // just below would pull the interpolated surface value down); the longer reach counts.
+    const auto first_beyond = [](const mesh::Axis& axis, double face, int dir) {
+        const auto& fa = axis.faces;
+        const auto it = std::lower_bound(fa.begin(), fa.end(), face - 1e-12);
+        const std::size_t at = static_cast<std::size_t>(it - fa.begin());
+        return dir > 0 ? axis.centre(std::min(at, axis.cells() - 1)) : axis.centre(at > 0 ? at - 1 : 0);
+    };
+    const double row_above = first_beyond(grid.z, 0.0, 1);
+    const double column_beside = first_beyond(grid.y, frame.yw, side);
+    const auto reach = [&](Point start, Point direction, double length) {
+        const auto stretch = first_stretch(f, joint, start, direction, length, levels.solidus);
+        return stretch ? stretch->end : 0.0;
+    };
+    const double flange_room = joint.flange_width / 2 - side * frame.yw, web_room = joint.root_gap + joint.web_height;
+    cs.fused_leg_flange = std::max(reach(root, {double(side), 0.0}, flange_room),
+                                   reach({frame.yw, row_above}, {double(side), 0.0}, flange_room));
+    cs.fused_leg_web = std::max(reach(root, {0.0, 1.0}, web_room), reach({column_beside, 0.0}, {0.0, 1.0}, web_room));
 
     // Bisector: back from the root into the plates (under the web edge, into the flange) for the
     // penetration beyond the root; if the root did not fuse, forward to the first fused point instead.

@@ -1,9 +1,8 @@
-// Quick measures of one cross-section of a run, from the per-cell thermal history: how deep the
-// fusion zone reaches below the flange top and the HAZ's t8/5. (The full macro-etch style
-// measurement of the cross-section builds on these.)
+// One figure for a whole cross-section's HAZ: the median t8/5 over its cells. t8/5 is nearly
+// the same wherever the peak exceeded about 900 °C (EN 1011-2 Annex D), so the median over those
+// cells is a robust single value, used to compare grids (heatbead bench).
 #pragma once
 
-#include "mesh/grid.hpp"
 #include "mesh/solid_cells.hpp"
 #include "post/thermal_history.hpp"
 
@@ -11,18 +10,11 @@
 
 namespace heatbead::post {
 
-struct StationMetrics {
-    std::size_t slice = 0;              // x index of the cross-section
-    std::optional<double> penetration;  // m below the flange top reached by the solidus of peak temperature
-    std::optional<double> t8_5;         // s, median over HAZ cells whose peak lay between 900 °C and solidus
-    std::size_t haz_cells = 0;
+struct HazCooling {
+    std::optional<double> t8_5;  // s, median over cells of the slice whose peak lay between 900 °C and solidus
+    std::size_t cells = 0;       // how many cells that median is over
 };
 
-// `station` is x along the weld [m]; `solidus` in °C. Penetration: in each flange column (j)
-// of the slice, the depth where the peak temperature falls through the solidus, interpolated
-// linearly between cell centres; the deepest column counts. t8/5 is nearly the same wherever the
-// peak exceeded about 900 °C (EN 1011-2 Annex D), hence the median over those cells.
-StationMetrics station_metrics(const mesh::Grid& grid, const mesh::SolidCells& cells, const ThermalHistory& history,
-                               double station, double solidus);
+HazCooling haz_cooling(const mesh::SolidCells& cells, const ThermalHistory& history, std::size_t slice, double solidus);
 
 }  // namespace heatbead::post

@@ -48,12 +48,22 @@ ProbeResult probe_from_cycle(std::string name, std::array<double, 3> at, std::ve
 
 }  // namespace
 
+Composition haz_composition(const Case& c, bool& assumed) {
+    assumed = !c.base.composition;
+    return c.base.composition.value_or(assumed_composition());
+}
+
+post::SectionLevels section_levels(const Case& c) {
+    bool assumed = false;
+    const Composition comp = haz_composition(c, assumed);
+    return {c.base.solidus, andrews_ac1(comp), andrews_ac3(comp)};
+}
+
 RunAnalysis analyse_run(const Case& c, const Simulation& sim, const post::SectionHistory& station) {
     RunAnalysis a;
-    const Composition comp = c.base.composition.value_or(assumed_composition());
-    a.composition_assumed = !c.base.composition;
-    a.ac1 = andrews_ac1(comp), a.ac3 = andrews_ac3(comp);
-    const post::SectionLevels levels{c.base.solidus, a.ac1, a.ac3};
+    haz_composition(c, a.composition_assumed);
+    const post::SectionLevels levels = section_levels(c);
+    a.ac1 = levels.ac1, a.ac3 = levels.ac3;
     const auto& grid = sim.grid();
     const auto& peak = sim.history().peak();
     a.section = post::measure_cross_section(c.joint, grid, sim.cells(), peak, c.output.station, 1, levels);

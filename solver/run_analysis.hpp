@@ -30,6 +30,12 @@ struct RunAnalysis {
     std::vector<double> t8_5;          // per solid cell, NaN where not defined
 };
 
+// The composition the HAZ boundaries are computed from: the case's, or, without one, a typical
+// structural C–Mn steel (then `assumed` is set).
+Composition haz_composition(const Case& c, bool& assumed);
+// Solidus, Ac1 and Ac3 (Andrews 1965) of the base metal.
+post::SectionLevels section_levels(const Case& c);
+
 // Probe offsets into the HAZ beyond the fusion line, normal to each plate [m].
 inline constexpr std::array<double, 3> haz_probe_offsets{0.5e-3, 1e-3, 2e-3};
 

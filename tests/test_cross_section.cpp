@@ -323,3 +323,22 @@ TEST_CASE("cross-section input checks", "[section]") {
     CHECK(cs.lack_of_fusion_web);
     CHECK(cs.fusion_line.empty());
 }
+
+TEST_CASE("a bead that melted without melting the plates shows its own legs", "[section]") {
+    // Only the weld metal is above the solidus: a gauge reads the bead's legs (hand geometry: the
+    // meshed bead reaches the toe to within a cell), and there is no penetration into either plate.
+    const double h = 0.2 * mm;
+    const Setup s = setup(h);
+    std::vector<double> peak(s.cells.size(), ambient);
+    for (std::size_t i = 0; i < s.cells.nx; ++i) {
+        for (std::size_t c = 0; c < s.cells.ns; ++c) {
+            if (s.cells.tag[c] == mesh::Tag::weld) peak[s.cells.index(i, c)] = levels.solidus + 100;
+        }
+    }
+    const auto cs = post::measure_cross_section(s.joint, s.grid, s.cells, peak, 3 * mm, 1, levels);
+    CHECK(cs.fused_leg_flange == Approx(leg).margin(h));
+    CHECK(cs.fused_leg_web == Approx(leg).margin(h));
+    CHECK(cs.lack_of_fusion_flange);
+    CHECK(cs.lack_of_fusion_web);
+    CHECK_FALSE(cs.root_fused);
+}
