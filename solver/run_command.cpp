@@ -118,8 +118,11 @@ int run_command(const LoadedCase& loaded, const RunOptions& options) {
     const double wall = std::chrono::duration<double>(std::chrono::steady_clock::now() - start).count();
     progress.finish();
     if (!result.completed || interrupt_flag().load()) {
-        std::filesystem::remove_all(series_partial);
-        if (std::filesystem::is_empty(out)) std::filesystem::remove(out);
+        std::error_code ignored;
+        std::filesystem::remove_all(series_partial, ignored);
+        if (std::filesystem::is_directory(out, ignored) && std::filesystem::is_empty(out, ignored)) {
+            std::filesystem::remove(out, ignored);
+        }
         std::fprintf(stderr, "heatbead: run %s at t = %.2f s; nothing was written\n",
                      interrupt_flag().load() ? "interrupted" : result.stop_reason.c_str(), result.end_time);
         return exit_code::run_failed;
