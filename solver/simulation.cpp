@@ -134,6 +134,9 @@ RunResult Simulation::run(const std::atomic<bool>& interrupt, const ProgressFn& 
             break;
         }
         if (phase == Phase::welding && t >= path->off_time) {
+            // Weld metal the arc reached in its last half step is laid as it stops.
+            born_.clear();
+            birth(passes_[p], *path, path->off_time);
             result.pass_end.push_back(t);
             result.energy.arc += passes_[p].net_power * (path->off_time - path->on_time);
             phase = p + 1 < passes_.size() ? Phase::waiting : Phase::cooling;
