@@ -1,7 +1,7 @@
 #include "solver/bench.hpp"
 
 #include "post/cross_section.hpp"
-#include "post/station_metrics.hpp"
+#include "post/haz_cooling.hpp"
 #include "solver/run_analysis.hpp"
 #include "solver/case_reader.hpp"
 #include "solver/exit_codes.hpp"

@@ -4,7 +4,7 @@
 //  - EN 1993-1-2:2005 §3.4.1 (carbon steel): λ = 54 − 3.33·10⁻²θ (20–800 °C), 27.3 W/(m K) (800–1200 °C);
 //    c = 425 + 0.773θ − 1.69·10⁻³θ² + 2.22·10⁻⁶θ³ (20–600 °C), 666 + 13002/(738 − θ) (600–735 °C),
 //    545 + 17820/(θ − 731) (735–900 °C), 650 J/(kg K) (900–1200 °C); ρ = 7850 kg/m³ (§3.2.2)
-//    (as listed in /work/shared/REFERENCES.md §7);
+//    (as listed in the shared REFERENCES.md §7);
 //  - "hand computation": integrals of those formulas and other arithmetic done by hand (written out beside
 //    each check), with the project's documented extension: k and c held constant outside 20–1200 °C;
 //  - absolute zero −273.15 °C: definition of the Celsius scale, SI Brochure (from memory).

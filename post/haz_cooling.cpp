@@ -1,4 +1,4 @@
-#include "post/station_metrics.hpp"
+#include "post/haz_cooling.hpp"
 
 #include <algorithm>
 #include <cmath>
