@@ -61,6 +61,7 @@ struct ProcedureSpec {
 // Goldak double-ellipsoid dimensions (Goldak, Chakravarti & Bibby 1984), in metres.
 struct SourceShape {
     bool from_procedure = true;
+    bool origin_at_root = true;  // origin at the root corner (where the arc is aimed), else on the bead face
     double half_width = 0, depth = 0, front_length = 0, rear_length = 0;
     std::string rule;  // how the dimensions were chosen
 };

@@ -212,12 +212,16 @@ void read_procedure(Case& c, CaseDocument& doc) {
     }
 }
 
+constexpr std::array<std::string_view, 2> source_origins{"root", "face"};
+
 void read_source(Case& c, CaseDocument& doc) {
     auto s = doc.section("source", false);
     const bool given = s.choice("shape", source_shapes, "from_procedure") == "given";
+    const bool at_root = s.choice("origin", source_origins, "root") == "root";
     constexpr std::array<std::string_view, 4> keys{"half_width", "depth", "front_length", "rear_length"};
     if (!given) {
         c.source = source_from_procedure(c.joint);
+        c.source.origin_at_root = at_root;
         for (auto k : keys) {
             if (s.has(k)) s.error(k, "explicit dimensions need shape = \"given\"");
             s.optional_quantity(k, Dimension::length, "mm");
@@ -226,6 +230,7 @@ void read_source(Case& c, CaseDocument& doc) {
     }
     const Bounds b{0, 50 * mm, true, false};
     c.source.from_procedure = false;
+    c.source.origin_at_root = at_root;
     c.source.half_width = s.quantity("half_width", Dimension::length, "mm", std::nullopt, b);
     c.source.depth = s.quantity("depth", Dimension::length, "mm", std::nullopt, b);
     c.source.front_length = s.quantity("front_length", Dimension::length, "mm", std::nullopt, b);

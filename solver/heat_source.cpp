@@ -149,7 +149,7 @@ Vec3 TorchPath::origin(double t) const {
 }
 
 TorchPath torch_path(const mesh::JointGeometry& joint, int side, double work_angle, double travel_angle,
-                     double speed, double start_time) {
+                     double speed, double start_time, SourceOrigin origin) {
     mesh::validate(joint);
     require(side == 1 || (side == -1 && joint.sides == 2), "torch path: no bead on side " + std::to_string(side));
     require(work_angle > 0.0 && work_angle < std::numbers::pi / 2.0, "torch path: work angle must be in (0, 90) deg");
@@ -159,7 +159,8 @@ TorchPath torch_path(const mesh::JointGeometry& joint, int side, double work_ang
     const BeadPoint on_face = face_on_ray(joint, work_angle);
     const double cos_travel = std::cos(travel_angle);
     TorchPath path;
-    path.start = {0.0, joint.web_face(side) + side * on_face.a, on_face.z};
+    path.start = origin == SourceOrigin::face ? Vec3{0.0, joint.web_face(side) + side * on_face.a, on_face.z}
+                                              : Vec3{0.0, joint.web_face(side), 0.0};
     path.speed = speed;
     path.on_time = start_time;
     path.off_time = start_time + joint.weld_length / speed;

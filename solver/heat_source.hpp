@@ -38,15 +38,19 @@ struct TorchPath {
 // (web_face(side), 0) at `work_angle` to the flange (45° is the bisector of the right angle between the
 // plates); `travel_angle` turns it out of the section, positive = push, so that the depth axis is
 //     ζ = (sin τ, -side·cos τ·cos θ, -cos τ·sin θ).
-// The origin is where that axis meets the bead face (flat, convex or concave, as in mesh/joint.hpp), with
+// With SourceOrigin::face the origin is where that axis meets the bead face (flat, convex or concave, as in
+// mesh/joint.hpp); with SourceOrigin::root it is the root corner itself, where the arc is aimed. Either way,
 // the origin's x = speed·(t - start_time): the arc, not the root aim point, runs from x = 0 to x = L.
 // Because the face is the same in every section, the origin's (y, z) does not depend on the travel angle.
 // Side -1 is the mirror image of side +1 in y about the web centre; its frame is kept right-handed, so its
 // width axis is the mirrored one reversed (the density is even in η, so the source is the mirror image).
 // Throws std::invalid_argument for an invalid joint, a side without a bead, a work angle outside
 // (0, 90°), a travel angle outside (-90°, 90°) or a speed <= 0.
+// Where the ellipsoid's origin sits on the torch axis: where the arc is aimed, the root corner,
+// or where the axis meets the finished bead's face.
+enum class SourceOrigin { root, face };
 TorchPath torch_path(const mesh::JointGeometry& joint, int side, double work_angle, double travel_angle,
-                     double speed, double start_time);
+                     double speed, double start_time, SourceOrigin origin = SourceOrigin::face);
 
 // Power put into one solid cell (index i·ns + s of mesh::SolidCells).
 struct CellPower {

@@ -56,8 +56,8 @@ std::optional<Deposition> deposition(const Case& c) {
 }
 
 SourceShape source_from_procedure(const mesh::JointGeometry& j) {
-    // The ellipsoid's origin is where the torch axis meets the bead face; its depth axis points
-    // along the torch into the root. Half-width = half the face width (the chord between toes),
+    // The depth axis points along the torch into the root; the origin is the root corner where
+    // the arc is aimed (or the bead face, by choice). Half-width = half the face width (the chord between toes),
     // depth = design throat (root to face), front length = half-width and rear length = twice
     // that, after the proportions Goldak et al. (1984) suggest for a first guess (from memory).
     // A rule of thumb: calibrate against a macro-section before trusting fusion depths.

@@ -20,8 +20,9 @@ std::vector<Pass> make_passes(const Case& c) {
         if (side == -1 && c.joint.sides < 2) break;
         Pass p;
         const auto& proc = c.procedure;
-        p.path = [joint = c.joint, side, proc](double start) {
-            return torch_path(joint, side, proc.work_angle, proc.travel_angle, proc.travel_speed, start);
+        const SourceOrigin origin = c.source.origin_at_root ? SourceOrigin::root : SourceOrigin::face;
+        p.path = [joint = c.joint, side, proc, origin](double start) {
+            return torch_path(joint, side, proc.work_angle, proc.travel_angle, proc.travel_speed, start, origin);
         };
         p.shape = c.source;
         p.net_power = net_power(proc);

@@ -60,3 +60,23 @@ TEST_CASE("HAZ t8/5 of a thick tee follows EN 1011-2 Annex D", "[reference][slow
     CHECK(hot.t8_5 > base.t8_5);   // more heat input, slower cooling
     CHECK(warm.t8_5 > base.t8_5);  // preheat slows cooling
 }
+
+TEST_CASE("a quarter-inch short-circuit fillet on half-inch plate fuses the root and both plates", "[reference][slow]") {
+    // Common practice, no source: on half-inch plate a quarter-inch fillet laid at about 250 A and
+    // 24 V with 1.2 mm solid wire in short-circuit transfer fuses past the root corner into both
+    // plates. The prediction must agree.
+    const Case c = read_case(std::string(HEATBEAD_SOURCE_DIR) + "/tests/cases/short_circuit_half_inch.toml").value;
+    const mesh::Grid grid = mesh::build_grid(c.joint, c.grid);
+    const Material m = make_material(c.base);
+    Simulation sim(grid, m, make_losses(c), make_passes(c), make_settings(c));
+    std::atomic<bool> stop{false};
+    REQUIRE(sim.run(stop).completed);
+    const auto x = post::measure_cross_section(c.joint, grid, sim.cells(), sim.history().peak(), c.output.station, 1,
+                                               section_levels(c));
+    INFO("penetration flange " << x.penetration_flange * 1e3 << " mm, web " << x.penetration_web * 1e3 << " mm");
+    CHECK(x.root_fused);
+    CHECK(x.penetration_flange > 0);
+    CHECK(x.penetration_web > 0);
+    CHECK_FALSE(x.lack_of_fusion_flange);
+    CHECK_FALSE(x.lack_of_fusion_web);
+}

@@ -343,3 +343,13 @@ TEST_CASE("invalid torch paths and sources are rejected", "[source]") {
     CHECK_THROWS_AS(DoubleEllipsoid(path, flat, power), std::invalid_argument);
     CHECK_THROWS_AS(DoubleEllipsoid(path, check_shape(), 0.0), std::invalid_argument);
 }
+
+TEST_CASE("the origin can sit at the root corner, where the arc is aimed", "[source]") {
+    // Hand geometry: the root corner of side +1 is (web face, 0); the depth axis is unchanged.
+    const auto joint = sample_joint();
+    const TorchPath face = torch_path(joint, 1, std::numbers::pi / 4, 0, 5e-3, 0);
+    const TorchPath root = torch_path(joint, 1, std::numbers::pi / 4, 0, 5e-3, 0, SourceOrigin::root);
+    CHECK(root.start[1] == Approx(joint.web_face(1)));
+    CHECK(root.start[2] == Approx(0).margin(1e-15));
+    for (int i = 0; i < 3; ++i) CHECK(root.depth[i] == Approx(face.depth[i]));
+}
