@@ -99,6 +99,43 @@ RunAnalysis analyse_run(const Case& c, const Simulation& sim, const post::Sectio
     return a;
 }
 
+namespace {
+std::string csv_number(double v, int decimals) {
+    if (std::isnan(v)) return "";
+    char buf[32];
+    std::snprintf(buf, sizeof buf, "%.*f", decimals, v);
+    return buf;
+}
+}  // namespace
+
+std::string along_weld_csv(const RunAnalysis& a) {
+    std::string out =
+        "x [mm],penetration_flange [mm],penetration_web [mm],fused_leg_flange [mm],fused_leg_web [mm],"
+        "actual_throat [mm],fused_area [mm2],dilution [%],root_fused,haz_width_flange [mm],haz_width_web [mm]\n";
+    for (const auto& x : a.along) {
+        out += csv_number(x.station * 1e3, 1) + "," + csv_number(x.penetration_flange * 1e3, 3) + "," +
+               csv_number(x.penetration_web * 1e3, 3) + "," + csv_number(x.fused_leg_flange * 1e3, 3) + "," +
+               csv_number(x.fused_leg_web * 1e3, 3) + "," + csv_number(x.actual_throat * 1e3, 3) + "," +
+               csv_number(x.fused_area * 1e6, 2) + "," + csv_number(x.dilution * 100, 1) + "," +
+               (x.root_fused ? "yes" : "no") + "," + csv_number(x.haz_width_flange * 1e3, 3) + "," +
+               csv_number(x.haz_width_web * 1e3, 3) + "\n";
+    }
+    return out;
+}
+
+std::string probes_csv(const RunAnalysis& a) {
+    std::string out = "probe,x [mm],y [mm],z [mm],peak [degC],t8/5 [s],t8/3 [s],cooling rate at 540 degC [K/s],"
+                      "time above Ac1 [s],time to 100 degC [s]\n";
+    for (const auto& p : a.probes) {
+        const auto& f = p.figures;
+        out += p.name + "," + csv_number(p.position[0] * 1e3, 2) + "," + csv_number(p.position[1] * 1e3, 2) + "," +
+               csv_number(p.position[2] * 1e3, 2) + "," + csv_number(f.peak, 1) + "," + csv_number(f.t8_5, 3) + "," +
+               csv_number(f.t8_3, 3) + "," + csv_number(f.rate_540, 1) + "," + csv_number(f.time_above_ac1, 3) + "," +
+               csv_number(f.time_to_100, 2) + "\n";
+    }
+    return out;
+}
+
 post::Summary make_summary(const Case& c, const RunResult& result, const RunAnalysis& a, double wall) {
     post::Summary s;
     const auto& x = a.section;
@@ -120,6 +157,7 @@ post::Summary make_summary(const Case& c, const RunResult& result, const RunAnal
     word("Throat", "root_fused", "root fused", x.root_fused ? "yes" : "NO");
     num("Areas", "fused_area", "fused", x.fused_area * 1e6, "mm2", 1);
     num("Areas", "deposited_area", "deposited", x.deposited_area * 1e6, "mm2", 1);
+    num("Areas", "melted_base_area", "melted base", x.melted_base_area * 1e6, "mm2", 1);
     num("Areas", "dilution", "dilution", x.dilution * 100, "%", 0);
     num("HAZ", "haz_width_flange", "width flange", x.haz_width_flange * 1e3, "mm");
     num("HAZ", "haz_width_web", "web", x.haz_width_web * 1e3, "mm");

@@ -41,6 +41,12 @@ inline constexpr std::array<double, 3> haz_probe_offsets{0.5e-3, 1e-3, 2e-3};
 
 RunAnalysis analyse_run(const Case& c, const Simulation& sim, const post::SectionHistory& station);
 
+// The cross-section measured every few mm along the weld (start and stop effects), as CSV with
+// units in the header.
+std::string along_weld_csv(const RunAnalysis& analysis);
+// Each probe's position and cooling figures, as CSV with units in the header.
+std::string probes_csv(const RunAnalysis& analysis);
+
 // Every number of the screen summary, with units (the same items go to JSON and CSV).
 post::Summary make_summary(const Case& c, const RunResult& result, const RunAnalysis& analysis, double wall_seconds);
 

@@ -139,7 +139,9 @@ int run_command(const LoadedCase& loaded, const RunOptions& options) {
     if (wants("summary")) {
         post::write_file_atomically(out / "summary.json", summary.to_json());
         post::write_file_atomically(out / "summary.csv", summary.to_csv());
-        written.push_back((out / "summary.json").string() + ", summary.csv");
+        post::write_file_atomically(out / "probes.csv", probes_csv(analysis));
+        post::write_file_atomically(out / "along_weld.csv", along_weld_csv(analysis));
+        written.push_back((out / "summary.json").string() + ", summary.csv, probes.csv, along_weld.csv");
     }
 
     if (series) {
