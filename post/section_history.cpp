@@ -67,6 +67,16 @@ std::vector<double> SectionHistory::cycle_at(const mesh::Grid& grid, double y, d
     return out;
 }
 
+namespace {
+// Cooling rate at `level`: the slope of the step that crosses it last on the way down (NaN if none).
+double cooling_rate_at(std::span<const double> time, std::span<const double> T, double level) {
+    for (std::size_t n = T.size(); n-- > 1;) {
+        if (T[n - 1] >= level && T[n] < level) return (T[n - 1] - T[n]) / (time[n] - time[n - 1]);
+    }
+    return nan;
+}
+}  // namespace
+
 CycleFigures cycle_figures(std::span<const double> time, std::span<const double> T, double ac1) {
     CycleFigures f;
     const auto peak = std::max_element(T.begin(), T.end());
@@ -77,14 +87,8 @@ CycleFigures cycle_figures(std::span<const double> time, std::span<const double>
     f.t8_5 = t500 - t800;
     f.t8_3 = t300 - t800;
     f.time_to_100 = t100 - f.time_of_peak;
-    // Cooling rate at 540 °C: the slope of the step that crosses it on the way down.
-    f.rate_540 = nan;
-    for (std::size_t n = T.size(); n-- > 1;) {
-        if (T[n - 1] >= 540 && T[n] < 540) {
-            f.rate_540 = (T[n - 1] - T[n]) / (time[n] - time[n - 1]);
-            break;
-        }
-    }
+    f.rate_540 = cooling_rate_at(time, T, 540);
+    f.rate_700 = cooling_rate_at(time, T, 700);
     // Time above Ac1: the parts of each step above it, with linear interpolation at crossings.
     double above = 0;
     for (std::size_t n = 1; n < T.size(); ++n) {

@@ -37,6 +37,7 @@ struct CycleFigures {
     double peak = 0, time_of_peak = 0;
     double t8_5 = 0, t8_3 = 0;     // NaN where the cycle did not pass through both temperatures
     double rate_540 = 0;           // K/s, cooling rate when passing 540 °C (NaN if it never did)
+    double rate_700 = 0;           // K/s, the same at 700 °C (sets the phase hardnesses)
     double time_above_ac1 = 0;     // s spent above Ac1
     double time_to_100 = 0;        // s from the peak until it fell below 100 °C (NaN if it has not)
 };

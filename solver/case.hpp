@@ -91,6 +91,18 @@ struct OutputSpec {
     double snapshot_interval = 1;                // s
 };
 
+// What `heatbead preheat` searches for: the lowest preheat, in steps of `resolution`, between
+// `lowest` and `highest` at which every hardened HAZ probe stays at or below the hardness limit
+// and, where given, cools from 800 to 500 °C no faster than `min_t8_5` and stays above 100 °C for
+// at least `min_time_to_100` (time for hydrogen to diffuse out).
+struct PreheatSearchSpec {
+    double hardness_limit = 350;            // HV
+    std::optional<double> min_t8_5;         // s
+    std::optional<double> min_time_to_100;  // s
+    double lowest = 20, highest = 250;      // degC
+    double resolution = 5;                  // K
+};
+
 struct Case {
     std::string file;  // path the case was read from
     mesh::JointGeometry joint;
@@ -103,6 +115,7 @@ struct Case {
     SurfaceSpec surface;
     SolverSpec solver;
     OutputSpec output;
+    PreheatSearchSpec preheat_search;
     std::vector<std::string> warnings;  // unusual but possible values, found while reading
 };
 

@@ -105,7 +105,9 @@ std::optional<Composition> read_composition(Section& parent) {
     Composition comp;
     // Mass per cent, plain numbers.
     const auto pct = [&](std::string_view key) { return s.number(key, 0.0, Bounds::closed(0, 100)); };
-    comp.C = pct("C"), comp.Mn = pct("Mn"), comp.Si = pct("Si"), comp.Cr = pct("Cr"), comp.Mo = pct("Mo");
+    // Carbon sets hardenability above all else: it must be given; an element left out is 0 %.
+    comp.C = s.number("C", std::nullopt, Bounds::closed(0, 100));
+    comp.Mn = pct("Mn"), comp.Si = pct("Si"), comp.Cr = pct("Cr"), comp.Mo = pct("Mo");
     comp.V = pct("V"), comp.Ni = pct("Ni"), comp.Cu = pct("Cu"), comp.Nb = pct("Nb"), comp.B = pct("B");
     const double sum = comp.C + comp.Mn + comp.Si + comp.Cr + comp.Mo + comp.V + comp.Ni + comp.Cu + comp.Nb + comp.B;
     if (sum > 100) s.error("C", "the alloying elements add up to more than 100 % by mass");
@@ -310,6 +312,24 @@ void read_output(Case& c, CaseDocument& doc) {
     o.snapshot_interval = s.quantity("snapshot_interval", Dimension::time, "s", 1.0, Bounds::positive());
 }
 
+void read_preheat_search(Case& c, CaseDocument& doc) {
+    auto s = doc.section("preheat_search", false);
+    auto& p = c.preheat_search;
+    // 350 HV is the usual HAZ limit against hydrogen cracking (from memory); sour service sets
+    // lower ones (ISO 15156-2: 250 HV in the weld zone).
+    p.hardness_limit = s.number("hardness_limit", 350.0, Bounds::closed(150, 600));
+    p.min_t8_5 = s.optional_quantity("min_t8_5", Dimension::time, "s", Bounds{0, 1000, true, false});
+    p.min_time_to_100 = s.optional_quantity("min_time_to_100", Dimension::time, "s", Bounds{0, 1e5, true, false});
+    p.lowest = s.quantity("lowest", Dimension::temperature, "degC", c.temperatures.ambient,
+                          Bounds::closed(c.temperatures.ambient, 400));
+    p.highest = s.quantity("highest", Dimension::temperature, "degC", std::max(250.0, p.lowest),
+                           Bounds::closed(c.temperatures.ambient, 400));
+    p.resolution = s.number("resolution", 5.0, Bounds::closed(1, 50));
+    if (std::isfinite(p.lowest) && std::isfinite(p.highest) && p.highest <= p.lowest) {
+        s.error("highest", "must be above lowest (" + std::to_string(static_cast<int>(p.lowest)) + " degC)");
+    }
+}
+
 // Rejects grids that would not fit the memory limit, before any large allocation.
 void check_grid_size(Case& c, CaseDocument& doc) {
     mesh::Grid axes;
@@ -366,6 +386,7 @@ LoadedCase read_case(const std::string& path, const std::vector<Override>& overr
     read_grid(c, doc);
     read_solver(c, doc);
     read_output(c, doc);
+    read_preheat_search(c, doc);
     doc.finish();  // throws on any problem so far: the checks below need a sound case
     check_grid_size(c, doc);
     doc.finish();

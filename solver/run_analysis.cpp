@@ -1,5 +1,6 @@
 #include "solver/run_analysis.hpp"
 
+#include "solver/haz_hardness.hpp"
 #include "solver/metallurgy.hpp"
 #include "solver/procedure.hpp"
 
@@ -41,7 +42,8 @@ DeepestPoints deepest_points(const std::vector<post::Polyline>& fusion, double w
 
 ProbeResult probe_from_cycle(std::string name, std::array<double, 3> at, std::vector<double> time,
                              std::vector<double> temperature, double ac1) {
-    ProbeResult p{std::move(name), at, std::move(time), std::move(temperature), {}};
+    ProbeResult p;
+    p.name = std::move(name), p.position = at, p.time = std::move(time), p.temperature = std::move(temperature);
     if (!p.temperature.empty()) p.figures = post::cycle_figures(p.time, p.temperature, ac1);
     return p;
 }
@@ -96,7 +98,25 @@ RunAnalysis analyse_run(const Case& c, const Simulation& sim, const post::Sectio
     }
     add("root", web_face, 0.0);
     for (const auto& p : sim.probes()) a.probes.push_back(probe_from_cycle(p.name, p.position, p.time, p.temperature, a.ac1));
+    if (c.base.composition) {
+        for (auto& p : a.probes) {
+            const auto& f = p.figures;
+            const bool in_haz = p.name.rfind("fusion_", 0) == 0 || p.name.rfind("haz_", 0) == 0;
+            if (!in_haz || f.peak < a.ac3 || !std::isfinite(f.t8_5) || !std::isfinite(f.rate_700)) continue;
+            const HardnessEstimate h = haz_hardness(*c.base.composition, f.t8_5, f.rate_700);
+            p.hardness = h.hv;
+            p.hardness_bound = h.bound;
+        }
+    }
     return a;
+}
+
+const ProbeResult* RunAnalysis::hardest() const {
+    const ProbeResult* best = nullptr;
+    for (const auto& p : probes) {
+        if (!std::isnan(p.hardness) && (!best || p.hardness > best->hardness)) best = &p;
+    }
+    return best;
 }
 
 namespace {
@@ -125,13 +145,14 @@ std::string along_weld_csv(const RunAnalysis& a) {
 
 std::string probes_csv(const RunAnalysis& a) {
     std::string out = "probe,x [mm],y [mm],z [mm],peak [degC],t8/5 [s],t8/3 [s],cooling rate at 540 degC [K/s],"
-                      "time above Ac1 [s],time to 100 degC [s]\n";
+                      "cooling rate at 700 degC [K/s],time above Ac1 [s],time to 100 degC [s],HAZ hardness [HV]\n";
     for (const auto& p : a.probes) {
         const auto& f = p.figures;
         out += p.name + "," + csv_number(p.position[0] * 1e3, 2) + "," + csv_number(p.position[1] * 1e3, 2) + "," +
                csv_number(p.position[2] * 1e3, 2) + "," + csv_number(f.peak, 1) + "," + csv_number(f.t8_5, 3) + "," +
-               csv_number(f.t8_3, 3) + "," + csv_number(f.rate_540, 1) + "," + csv_number(f.time_above_ac1, 3) + "," +
-               csv_number(f.time_to_100, 2) + "\n";
+               csv_number(f.t8_3, 3) + "," + csv_number(f.rate_540, 1) + "," + csv_number(f.rate_700, 1) + "," +
+               csv_number(f.time_above_ac1, 3) + "," + csv_number(f.time_to_100, 2) + "," + csv_number(p.hardness, 0) +
+               "\n";
     }
     return out;
 }
@@ -174,6 +195,18 @@ post::Summary make_summary(const Case& c, const RunResult& result, const RunAnal
     num("Cooling", "t8_5_min", "t8/5 from", lo, "s");
     num("Cooling", "t8_5_max", "to", hi, "s");
     num("Cooling", "cooling_rate_540", "fastest rate at 540 degC", rate, "K/s", 0);
+    if (const ProbeResult* h = a.hardest()) {
+        const auto& limits = c.preheat_search;
+        num("Hardness", "haz_hardness_max", "HAZ max", h->hardness, "HV", 0);
+        word("Hardness", "haz_hardness_probe", "at", h->name);
+        num("Hardness", "hardness_limit", "limit", limits.hardness_limit, "HV", 0);
+        num("Hardness", "critical_t8_5", "t8/5 needed", critical_t8_5(*c.base.composition, limits.hardness_limit,
+                                                                       c.temperatures.preheat), "s", 1);
+        if (h->hardness > limits.hardness_limit) {
+            s.add_note("Hardness", "ABOVE THE LIMIT: consider preheat (heatbead preheat) or a higher heat input");
+        }
+        for (const auto& w : hardness_validity(*c.base.composition)) s.add_note("Hardness", w);
+    }
     num("Energy", "energy_balance_error", "balance error", result.energy.error() * 100, "%", 3);
     num("Energy", "end_time", "stopped at", result.end_time, "s", 1);
     num("Energy", "run_time", "run time", wall, "s", 1);

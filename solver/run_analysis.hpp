@@ -9,6 +9,7 @@
 #include "solver/simulation.hpp"
 
 #include <array>
+#include <limits>
 #include <string>
 #include <vector>
 
@@ -19,6 +20,11 @@ struct ProbeResult {
     std::array<double, 3> position;  // m
     std::vector<double> time, temperature;
     post::CycleFigures figures;
+    // Highest HAZ hardness estimate (solver/haz_hardness.hpp) at fusion-line and HAZ probes that
+    // were fully austenitised (peak ≥ Ac3), when the case gives the base metal's composition;
+    // NaN elsewhere. `hardness_bound` names the phase bound that applied, if any.
+    double hardness = std::numeric_limits<double>::quiet_NaN();
+    std::string hardness_bound;
 };
 
 struct RunAnalysis {
@@ -28,6 +34,8 @@ struct RunAnalysis {
     std::vector<post::CrossSection> along;  // every few mm along the weld
     std::vector<ProbeResult> probes;   // automatic ones at the station, then the user's
     std::vector<double> t8_5;          // per solid cell, NaN where not defined
+    // The probe with the highest hardness estimate (null when none was estimated).
+    const ProbeResult* hardest() const;
 };
 
 // The composition the HAZ boundaries are computed from: the case's, or, without one, a typical

@@ -33,12 +33,6 @@ namespace {
 
 extern "C" void on_signal(int) { interrupt_flag().store(true); }
 
-std::size_t station_slice(const mesh::Grid& grid, double station) {
-    const auto& f = grid.x.faces;
-    const auto i = static_cast<std::size_t>(std::upper_bound(f.begin(), f.end(), station) - f.begin());
-    return std::clamp<std::size_t>(i, 1, grid.x.cells()) - 1;
-}
-
 post::RunRecord make_record(const Simulation& sim, const LoadedCase& loaded, const RunResult& result,
                             const RunAnalysis& analysis) {
     post::RunRecord rec;
@@ -89,10 +83,9 @@ int run_command(const LoadedCase& loaded, const RunOptions& options) {
 
     const mesh::Grid grid = mesh::build_grid(c.joint, c.grid);
     const Material material = make_material(c.base);
-    Simulation sim(grid, material, make_losses(c), make_passes(c), make_settings(c));
-    for (std::size_t i = 0; i < c.output.probes.size(); ++i) sim.add_probe("user_" + std::to_string(i + 1), c.output.probes[i]);
-    post::SectionHistory station(sim.cells(), station_slice(grid, c.output.station), c.temperatures.preheat);
-    sim.add_observer([&](double t, std::span<const double> T) { station.record(t, T); });
+    PreparedRun prepared = prepare_run(c, grid, material);
+    Simulation& sim = *prepared.sim;
+    const post::SectionHistory& station = *prepared.station;
     const auto wants = [&](std::string_view kind) {
         return std::find(c.output.files.begin(), c.output.files.end(), kind) != c.output.files.end();
     };

@@ -2,6 +2,8 @@
 
 #include "solver/procedure.hpp"
 
+#include <algorithm>
+
 namespace heatbead {
 
 Material make_material(const MaterialSpec& base) {
@@ -35,6 +37,17 @@ std::vector<Pass> make_passes(const Case& c) {
     return passes;
 }
 
+namespace {
+
+// The x-slice holding the station.
+std::size_t station_slice(const mesh::Grid& grid, double station) {
+    const auto& f = grid.x.faces;
+    const auto i = static_cast<std::size_t>(std::upper_bound(f.begin(), f.end(), station) - f.begin());
+    return std::clamp<std::size_t>(i, 1, grid.x.cells()) - 1;
+}
+
+}  // namespace
+
 RunSettings make_settings(const Case& c) {
     RunSettings s;
     s.initial_temperature = c.temperatures.preheat;
@@ -44,6 +57,18 @@ RunSettings make_settings(const Case& c) {
     s.control.max_change = c.solver.max_temperature_change;
     s.control.travel_fraction = c.solver.travel_per_step;
     return s;
+}
+
+PreparedRun prepare_run(const Case& c, const mesh::Grid& grid, const Material& material) {
+    PreparedRun r;
+    r.sim = std::make_unique<Simulation>(grid, material, make_losses(c), make_passes(c), make_settings(c));
+    for (std::size_t i = 0; i < c.output.probes.size(); ++i) {
+        r.sim->add_probe("user_" + std::to_string(i + 1), c.output.probes[i]);
+    }
+    r.station = std::make_unique<post::SectionHistory>(r.sim->cells(), station_slice(grid, c.output.station),
+                                                       c.temperatures.preheat);
+    r.sim->add_observer([station = r.station.get()](double t, std::span<const double> T) { station->record(t, T); });
+    return r;
 }
 
 }  // namespace heatbead

@@ -2,10 +2,12 @@
 #pragma once
 
 #include "mesh/grid.hpp"
+#include "post/section_history.hpp"
 #include "solver/case.hpp"
 #include "solver/material.hpp"
 #include "solver/simulation.hpp"
 
+#include <memory>
 #include <vector>
 
 namespace heatbead {
@@ -16,5 +18,13 @@ SurfaceLosses make_losses(const Case& c);
 // has cooled to the interpass temperature).
 std::vector<Pass> make_passes(const Case& c);
 RunSettings make_settings(const Case& c);
+
+// A run ready to start: the simulation with the case's probes, and the recorder of the station
+// slice (thermal cycles for the probes and the cross-section) already observing it.
+struct PreparedRun {
+    std::unique_ptr<Simulation> sim;
+    std::unique_ptr<post::SectionHistory> station;
+};
+PreparedRun prepare_run(const Case& c, const mesh::Grid& grid, const Material& material);
 
 }  // namespace heatbead

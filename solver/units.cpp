@@ -3,6 +3,7 @@
 #include <array>
 #include <charconv>
 #include <cmath>
+#include <optional>
 #include <numbers>
 #include <span>
 #include <system_error>
@@ -348,9 +349,34 @@ double from_internal(double internal, std::string_view unit, Dimension dim) {
     return require(unit, dim).from_internal(internal);
 }
 
+namespace {
+
+// Diffusible-hydrogen designators of consumables, as the upper limit of their class in ml/100 g
+// of deposited metal (from memory): H4, H8, H16 as in the AWS filler-metal specifications; H5,
+// H10, H15 as in the EN ISO consumable standards; hydrogen scales B to E of EN 1011-2 (scale A,
+// over 15, has no upper limit and is refused).
+std::optional<double> hydrogen_designator(std::string_view s) {
+    static constexpr std::pair<std::string_view, double> table[] = {
+        {"H4", 4},         {"H5", 5},         {"H8", 8},         {"H10", 10},       {"H15", 15},
+        {"H16", 16},       {"scale B", 15},   {"scale C", 10},   {"scale D", 5},    {"scale E", 3}};
+    for (const auto& [name, value] : table) {
+        if (s == name) return value;
+    }
+    if (s == "scale A") {
+        throw UnitError("\"scale A\": hydrogen scale A (over 15 ml/100g) has no upper limit; give the measured "
+                        "value, e.g. \"18 ml/100g\"");
+    }
+    return std::nullopt;
+}
+
+}  // namespace
+
 double parse(std::string_view text, Dimension dim) {
     const Source src{text, dim};
     const std::string_view s = trim(text);
+    if (dim == Dimension::hydrogen) {
+        if (const auto designated = hydrogen_designator(s)) return *designated;
+    }
     const Number number = read_number(s, src);
     const std::string_view unit = trim(s.substr(number.end));
     if (unit.empty()) src.fail("no unit");

@@ -76,6 +76,8 @@ double from_internal(double internal, std::string_view unit, Dimension dim);
 // "a/b", "w a/b" or "w-a/b" ("1/2 in", "1 1/2 in", "1-1/2 in"), optionally signed. White space between
 // number and unit is optional ("12mm"). Examples: "7 mm/s", "300 ipm", "9 m/min", "300 degF", "293 K",
 // "45 deg", "8 GB", "1.1 kJ/mm", "5 ml/100g", "80 %".
+// Diffusible hydrogen also takes a consumable's designator or hydrogen scale: "H4", "H5", "H8",
+// "H10", "H15", "H16" (the upper limit of the class) or "scale B" … "scale E" (EN 1011-2).
 //
 // Throws UnitError when there is no number, no unit, a unit not of `dim`, a number that is not finite or out
 // of range, or a fraction that is not of whole numbers or divides by zero. A bare number is an error here;

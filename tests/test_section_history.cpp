@@ -26,6 +26,8 @@ TEST_CASE("cycle figures match the thick-plate cooling law", "[cycles]") {
     // Shared REFERENCES check value 7: 51.0 °C/s at 540 °C for k = 30 W/(m K), q/v = 1000 J/mm.
     CHECK(f.rate_540 == Approx(2 * std::numbers::pi * k * 520 * 520 / q_per_v).epsilon(1e-3));
     CHECK(f.rate_540 == Approx(51.0).epsilon(2e-3));
+    // The same law at 700 °C: 2πk (700 − T0)² / (q/v).
+    CHECK(f.rate_700 == Approx(2 * std::numbers::pi * k * 680 * 680 / q_per_v).epsilon(1e-3));
     // Above Ac1 = 720 °C: from 700/1380 s into the heating ramp until the law brings it back.
     const double up = (720 - T0) / (1400 - T0), down = 1 + a / (720 - T0) - t_join;
     CHECK(f.time_above_ac1 == Approx(down - up).epsilon(1e-3));

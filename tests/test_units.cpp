@@ -155,6 +155,14 @@ TEST_CASE("welding electrical quantities, time, angle, memory, heat input, hydro
     CHECK(parse("5 ml/100g", hydrogen) == near(5));
     CHECK(parse("5 mL/100g", hydrogen) == near(5));
     CHECK(parse("5 ml/100 g", hydrogen) == near(5));
+    // Designators read as the upper limit of their class (from memory): AWS H8, EN ISO H5, and
+    // EN 1011-2 hydrogen scale D (3 to 5 ml/100 g); scale A has no upper limit and is refused.
+    CHECK(parse("H8", hydrogen) == near(8));
+    CHECK(parse(" H5 ", hydrogen) == near(5));
+    CHECK(parse("scale D", hydrogen) == near(5));
+    CHECK_THROWS_WITH(parse("scale A", hydrogen), Catch::Contains("no upper limit"));
+    CHECK_THROWS(parse("H7", hydrogen));
+    CHECK_THROWS(parse("H5", length));
     // Latent heat per mass: 1 kJ/kg = 1000 J/kg (SI prefix).
     CHECK(parse("277 kJ/kg", specific_energy) == near(277e3));
     // 1 % = 0.01 (NIST SP 811).
