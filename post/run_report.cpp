@@ -1,6 +1,7 @@
 #include "post/run_report.hpp"
 
 #include "post/atomic_file.hpp"
+#include "post/html_page.hpp"
 #include "post/svg_plot.hpp"
 
 #include <algorithm>
@@ -179,51 +180,16 @@ void validate(const ReportInput& in) {
                                     std::to_string(cells) + " cells");
 }
 
-std::string table(const std::string& heading, const std::vector<std::pair<std::string, std::string>>& rows) {
-    std::string s = "<section class=\"table\"><h2>" + escape_html(heading) + "</h2>";
-    if (rows.empty()) return s + "<p>None recorded.</p></section>";
-    s += "<table><tbody>";
-    for (const auto& [name, value] : rows)
-        s += "<tr><th scope=\"row\">" + escape_html(name) + "</th><td>" + escape_html(value) + "</td></tr>";
-    return s + "</tbody></table></section>";
-}
-
-std::string figure(const std::string& id, const std::string& svg, const std::string& caption) {
-    return "<figure id=\"" + id + "\">" + svg + "<figcaption>" + escape_html(caption) + "</figcaption></figure>";
-}
-
-// The page's whole style: readable on screen and in print, figures scaling down on narrow screens.
-constexpr const char* style = R"(
-body{font-family:sans-serif;color:#222;margin:1.5em auto;max-width:1360px;padding:0 1em;line-height:1.4}
-h1{font-size:1.5em;margin:0 0 .2em}h2{font-size:1.15em;margin:1em 0 .4em}
-.meta{color:#555;margin:0 0 1em}
-.caution{border:2px solid #a15c00;background:#fff4e0;padding:.7em 1em;margin:1em 0;border-radius:4px}
-.warnings{border-left:4px solid #b8322a;background:#fcecea;padding:.4em 1em;margin:1em 0}
-.warnings h2{margin-top:.3em}
-.tables{display:flex;flex-wrap:wrap;gap:2em}
-table{border-collapse:collapse}th,td{border-bottom:1px solid #ddd;padding:.25em .8em;text-align:left;vertical-align:top}
-th{font-weight:normal;color:#444}td{font-variant-numeric:tabular-nums}
-.figures{display:flex;flex-wrap:wrap;gap:1.5em;margin-top:1.5em}
-figure{margin:0;flex:0 1 660px}figure svg{max-width:100%;height:auto;display:block}
-figcaption{font-size:.9em;color:#444;margin-top:.3em}
-)";
-
 }  // namespace
 
 std::string render_report(const ReportInput& in) {
     validate(in);
     const Box view = section_view(in);
-    std::string page = "<!DOCTYPE html>\n<html lang=\"en\">\n<head>\n<meta charset=\"utf-8\">\n<title>" +
-                       escape_html(in.title) + "</title>\n<style>" + style + "</style>\n</head>\n<body>\n";
-    page += "<header><h1>" + escape_html(in.title) + "</h1><p class=\"meta\">Case file: " + escape_html(in.case_file) +
-            " &#183; created " + escape_html(in.created) + "</p></header>\n";
-    page += "<div class=\"caution\" role=\"note\"><strong>Caution:</strong> " +
-            escape_html(in.caution.empty() ? standard_caution : in.caution) + "</div>\n";
-    if (!in.warnings.empty()) {
-        page += "<section class=\"warnings\"><h2>Warnings</h2><ul>";
-        for (const auto& w : in.warnings) page += "<li>" + escape_html(w) + "</li>";
-        page += "</ul></section>\n";
-    }
+    std::string page = page_start({.title = in.title,
+                                   .case_file = in.case_file,
+                                   .created = in.created,
+                                   .caution = in.caution.empty() ? standard_caution : in.caution,
+                                   .warnings = in.warnings});
     page += "<div class=\"tables\">" + table("Procedure", in.procedure) + table("Results", in.results) + "</div>\n";
     page += "<div class=\"figures\">\n";
     page += figure("figure-section", section_figure(in, view),
@@ -236,7 +202,7 @@ std::string render_report(const ReportInput& in) {
     page += figure("figure-peak-map", peak_map_figure(in, view),
                    "Highest temperature each point of the cross-section reached during the pass, same view as the "
                    "section; black: plate edges and the fusion line; blank: no metal (void).") + "\n";
-    return page + "</div>\n</body>\n</html>\n";
+    return page + "</div>\n" + page_end();
 }
 
 void write_report(const std::filesystem::path& path, const ReportInput& input) {

@@ -86,7 +86,8 @@ CycleFigures cycle_figures(std::span<const double> time, std::span<const double>
     const double t300 = last_down_crossing(time, T, 300), t100 = last_down_crossing(time, T, 100);
     f.t8_5 = t500 - t800;
     f.t8_3 = t300 - t800;
-    f.time_to_100 = t100 - f.time_of_peak;
+    // Only a fall through 100 °C after the peak counts (a preheat of about 100 °C may dip below it first).
+    f.time_to_100 = t100 > f.time_of_peak ? t100 - f.time_of_peak : nan;
     f.rate_540 = cooling_rate_at(time, T, 540);
     f.rate_700 = cooling_rate_at(time, T, 700);
     // Time above Ac1: the parts of each step above it, with linear interpolation at crossings.

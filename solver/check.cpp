@@ -1,6 +1,7 @@
 #include "solver/check.hpp"
 
 #include "mesh/grid.hpp"
+#include "solver/preheat_search.hpp"
 #include "solver/run_setup.hpp"
 
 #include <algorithm>
@@ -78,6 +79,8 @@ CheckReport make_check_report(const Case& c) {
     r.max_ratio = std::max({grid.x.max_ratio(), grid.y.max_ratio(), grid.z.max_ratio()});
     r.memory = run_memory_bytes(grid);
     r.estimate = estimate_run(c, grid, make_material(c.base));
+    if (c.base.composition) r.carbon_equivalents = carbon_equivalents(*c.base.composition);
+    if (c.base.composition && c.filler.diffusible_hydrogen) r.standard_preheat = en1011_method_b(standard_preheat_input(c));
     return r;
 }
 
@@ -120,6 +123,13 @@ std::string to_text(const CheckReport& r) {
                 human_seconds(r.estimate.seconds).c_str(), assumed_cell_updates_per_second);
     out += line("Temperatures preheat %.0f degC, interpass %.0f degC, ambient %.0f degC; stop at %.0f degC",
                 c.temperatures.preheat, c.temperatures.interpass, c.temperatures.ambient, c.solver.stop_temperature);
+    if (const auto& ce = r.carbon_equivalents) {
+        out += line("Steel       CE(IIW) %.3f, Pcm %.3f, CEN %.3f, CET %.3f", ce->iiw, ce->pcm, ce->cen, ce->cet);
+    }
+    if (const auto& sp = r.standard_preheat) {
+        out += line("Preheat     EN 1011-2 method B: %.0f degC%s (heatbead preheat finds it from the HAZ)", sp->formula,
+                    sp->outside_validity.empty() ? "" : ", inputs outside its validity");
+    }
     if (!c.warnings.empty()) {
         out += "Warnings\n";
         for (const auto& w : c.warnings) out += "  - " + w + "\n";
@@ -166,6 +176,14 @@ nlohmann::json to_json(const CheckReport& r) {
                        {"explicit_steps", r.estimate.steps},
                        {"run_time", q(r.estimate.seconds, "s")},
                        {"assumed_cell_updates_per_second", assumed_cell_updates_per_second}};
+    if (const auto& ce = r.carbon_equivalents) {
+        out["carbon_equivalents"] = {{"CE_IIW", ce->iiw}, {"Pcm", ce->pcm}, {"CEN", ce->cen}, {"CET", ce->cet}};
+    }
+    if (const auto& sp = r.standard_preheat) {
+        out["standard_preheat"] = {{"method", "EN 1011-2:2001 Annex C.3 method B"},
+                                   {"preheat", q(sp->formula, "degC")},
+                                   {"outside_validity", sp->outside_validity}};
+    }
     out["warnings"] = c.warnings;
     out["caution"] = planning_caution;
     return out;

@@ -1,7 +1,9 @@
 // `heatbead check`: the derived quantities a welding engineer looks at before any run.
 #pragma once
 
+#include "solver/carbon_equivalent.hpp"
 #include "solver/case.hpp"
+#include "solver/en1011_preheat.hpp"
 #include "solver/procedure.hpp"
 #include "solver/run_estimate.hpp"
 
@@ -25,6 +27,10 @@ struct CheckReport {
     double h_min = 0, h_max = 0, max_ratio = 0;
     double memory = 0;  // bytes
     RunEstimate estimate;
+    // With a base-metal composition: its carbon equivalents; with the filler's hydrogen too, the
+    // EN 1011-2 method B preheat (a quick look before `heatbead preheat`).
+    std::optional<CarbonEquivalents> carbon_equivalents;
+    std::optional<StandardPreheat> standard_preheat;
 };
 
 CheckReport make_check_report(const Case& c);

@@ -5,6 +5,7 @@
 #include "solver/bench.hpp"
 #include "solver/check.hpp"
 #include "solver/exit_codes.hpp"
+#include "solver/preheat_command.hpp"
 #include "solver/run_command.hpp"
 
 #include <CLI/CLI.hpp>
@@ -77,6 +78,15 @@ int run_command_line(int argc, char** argv) {
     add_case_options(*run, run_options);
     run->add_option("--threads", run_extra.threads, "OpenMP threads (default: all cores)")->check(CLI::Range(1, 1024));
 
+    auto* preheat = app.add_subcommand("preheat", "find the lowest preheat that keeps the HAZ within the limits of "
+                                                  "[preheat_search], beside the EN 1011-2 method B value");
+    CommonOptions preheat_options;
+    PreheatOptions preheat_extra;
+    add_case_options(*preheat, preheat_options);
+    preheat->add_option("--jobs", preheat_extra.jobs, "runs at a time (default: one per core)")->check(CLI::Range(1, 256));
+    preheat->add_option("--threads", preheat_extra.threads, "OpenMP threads per run (default: cores / jobs)")
+        ->check(CLI::Range(1, 1024));
+
     auto* bench = app.add_subcommand("bench", "measure speed on the reference case (ratios from one run)");
     BenchOptions bench_options;
     bench->add_option("case", bench_options.case_path, "reference case file")->capture_default_str();
@@ -91,6 +101,11 @@ int run_command_line(int argc, char** argv) {
     try {
         if (check->parsed()) return check_command(options, resolved);
         if (bench->parsed()) return bench_command(bench_options);
+        if (preheat->parsed()) {
+            preheat_extra.out_dir = preheat_options.out_dir;
+            preheat_extra.quiet = preheat_options.quiet;
+            return preheat_command(load(preheat_options), preheat_extra);
+        }
         if (run->parsed()) {
             run_extra.out_dir = run_options.out_dir;
             run_extra.quiet = run_options.quiet;

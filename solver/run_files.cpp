@@ -38,14 +38,14 @@ post::Outline bead_outline(const mesh::JointGeometry& j) {
     return o;
 }
 
+}  // namespace
+
 std::string now_utc() {
     const std::time_t t = std::chrono::system_clock::to_time_t(std::chrono::system_clock::now());
     char buf[32];
     std::strftime(buf, sizeof buf, "%Y-%m-%d %H:%M UTC", std::gmtime(&t));
     return buf;
 }
-
-}  // namespace
 
 post::ReportInput make_report_input(const Case& c, const Simulation& sim, const RunAnalysis& a,
                                     const post::Summary& summary, const std::vector<std::string>& notes) {

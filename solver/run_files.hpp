@@ -8,8 +8,12 @@
 #include "solver/simulation.hpp"
 
 #include <filesystem>
+#include <string>
 
 namespace heatbead {
+
+// The time now, for "created" lines of reports: "2026-12-01 22:47 UTC".
+std::string now_utc();
 
 post::ReportInput make_report_input(const Case& c, const Simulation& sim, const RunAnalysis& a,
                                     const post::Summary& summary, const std::vector<std::string>& notes);

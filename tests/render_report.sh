@@ -1,10 +1,11 @@
 #!/usr/bin/env bash
-# Renders a run report in headless Chromium, as a reader's browser would, offline.
+# Renders a report page in headless Chromium, as a reader's browser would, offline.
 #   tests/render_report.sh REPORT.html [SCREENSHOT.png]
-# Checks that the DOM the browser built holds the three figures and inline SVG, and that a
+# Checks that the DOM the browser built holds the page's figures and inline SVG, and that a
 # screenshot could be taken (a non-empty PNG; default: beside the report, .png for .html).
 # Exit 0 on success, 1 with a message on failure, 77 (skipped) when no Chromium is installed.
-# CHROMIUM names the browser; REPORT_WINDOW the window size (default 1400,2400).
+# CHROMIUM names the browser; REPORT_WINDOW the window size (default 1400,2400); REPORT_FIGURES the
+# figure ids to look for, separated by spaces (default: the run report's three).
 set -euo pipefail
 
 if (($# < 1 || $# > 2)); then
@@ -44,8 +45,9 @@ if ! timeout 120 "$browser" "${flags[@]}" --dump-dom "$url" >"$dom" 2>"$profile/
   tail -n 20 "$profile/dom.log" >&2
   exit 1
 fi
+read -ra figures <<<"${REPORT_FIGURES:-figure-section figure-cycles figure-peak-map}"
 missing=()
-for id in figure-section figure-cycles figure-peak-map; do
+for id in "${figures[@]}"; do
   grep -q "id=\"$id\"" "$dom" || missing+=("$id")
 done
 grep -q '<svg' "$dom" || missing+=("<svg")
@@ -65,4 +67,4 @@ if [[ ! -s $screenshot ]] || [[ $(head -c 8 "$screenshot" | od -An -tx1 | tr -d 
   echo "render_report: no PNG screenshot at $screenshot" >&2
   exit 1
 fi
-echo "render_report: $report renders: three figures found; screenshot $screenshot ($(stat -c %s "$screenshot") bytes)"
+echo "render_report: $report renders: ${#figures[@]} figures found; screenshot $screenshot ($(stat -c %s "$screenshot") bytes)"

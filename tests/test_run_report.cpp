@@ -6,18 +6,19 @@
 // variable HEATBEAD_SAMPLE_REPORT, else heatbead_sample_report.html in the temporary folder).
 #include "post/run_report.hpp"
 #include "post/svg_plot.hpp"
+#include "page_checks.hpp"
 #include "temp_folder.hpp"
 
 #include <catch2/catch.hpp>
 
 #include <cmath>
-#include <cstdlib>
-#include <fstream>
 #include <limits>
 #include <numbers>
-#include <sstream>
 
 using namespace heatbead::post;
+using heatbead::testing::count;
+using heatbead::testing::read_file;
+using heatbead::testing::sample_path;
 
 namespace {
 
@@ -85,12 +86,6 @@ ReportInput sample_input() {
     map.unit = "°C";
     in.warnings = {"travel speed is near the upper end for this current"};
     return in;
-}
-
-std::size_t count(const std::string& text, const std::string& what) {
-    std::size_t n = 0;
-    for (auto at = text.find(what); at != std::string::npos; at = text.find(what, at + what.size())) ++n;
-    return n;
 }
 
 // Every element is closed in order (void elements and self-closed ones aside), and no attribute
@@ -241,10 +236,7 @@ TEST_CASE("write_report writes the rendered page", "[report]") {
     heatbead::testing::TempFolder folder("report");
     const auto path = folder.path / "sub" / "report.html";
     write_report(path, sample_input());
-    std::ifstream file(path, std::ios::binary);
-    std::stringstream content;
-    content << file.rdbuf();
-    CHECK(content.str() == render_report(sample_input()));
+    CHECK(read_file(path) == render_report(sample_input()));
 }
 
 TEST_CASE("svg plot: voids stay blank and equal cells merge", "[report]") {
@@ -281,9 +273,7 @@ TEST_CASE("svg helpers: escaping, numbers and the heat scale", "[report]") {
 }
 
 TEST_CASE("write the sample report for the browser check", "[.sample]") {
-    const char* env = std::getenv("HEATBEAD_SAMPLE_REPORT");
-    const std::filesystem::path path =
-        env && *env ? std::filesystem::path(env) : std::filesystem::temp_directory_path() / "heatbead_sample_report.html";
+    const auto path = sample_path("HEATBEAD_SAMPLE_REPORT", "heatbead_sample_report.html");
     write_report(path, sample_input());
     CHECK(std::filesystem::file_size(path) > 0);
 }
