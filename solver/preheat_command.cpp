@@ -71,10 +71,15 @@ std::string explanation(const PreheatAnswer& a, const Case& c) {
     std::string s;
     if (!a.found) {
         const auto& top = trials.back();
-        return "No preheat up to " + fmt("%.0f degC", top.preheat) + " meets the limits in the simulation (at " +
-               fmt("%.0f degC", top.preheat) + ": " + top.verdict +
-               "). Preheat alone does not bring this joint within the limits: a higher heat input, a steel of lower "
-               "carbon equivalent or a heat treatment under the governing code are the usual next steps.";
+        s = "No preheat up to " + fmt("%.0f degC", top.preheat) + " meets the limits in the simulation (at " +
+            fmt("%.0f degC", top.preheat) + ": " + top.verdict + ").";
+        const double needed = critical_t8_5(*c.base.composition, c.preheat_search.hardness_limit, top.preheat);
+        if (std::isfinite(needed) && needed > 0 && std::isfinite(top.t8_5)) {
+            s += " For " + fmt("%.0f HV", c.preheat_search.hardness_limit) + " this steel needs a t8/5 of about " +
+                 fmt("%.1f s", needed) + " (hardness formula); this joint gives " + fmt("%.1f s", top.t8_5) + " there.";
+        }
+        return s + " Preheat alone does not bring this joint within the limits: a higher heat input, a steel of "
+                   "lower carbon equivalent or a heat treatment under the governing code are the usual next steps.";
     }
     const auto at_found = std::find_if(trials.begin(), trials.end(), [&](const auto& t) { return t.preheat == *a.found; });
     s = "The simulation sets preheat by the hardness of the coarse-grained HAZ at this joint's own cooling: at " +
