@@ -2,6 +2,7 @@
 
 #include "post/atomic_file.hpp"
 #include "post/html_page.hpp"
+#include "post/report_figures.hpp"
 #include "post/svg_plot.hpp"
 
 #include <algorithm>
@@ -19,37 +20,15 @@ constexpr const char* standard_caution =
 
 // Section lines: the fusion line is the strongest mark; the two HAZ lines differ in dash and colour so
 // they stay apart in grey print too.
-const Stroke plate_edge{"#6b6b6b", 1.0, ""};
 const Stroke bead_edge{"#9a7b3c", 1.0, ""};
 const Stroke fusion_stroke{"#8b1a1a", 2.6, ""};
 const Stroke ac3_stroke{"#c8641a", 1.8, "8 4"};
 const Stroke ac1_stroke{"#2f5f8a", 1.8, "2 3"};
 const Stroke dimension_stroke{"#111111", 1.0, ""};
-constexpr const char* plate_fill = "#d9d9d9";
 constexpr const char* bead_fill = "#f3e2bd";
-constexpr const char* band_fill = "#f4e4bc";
 
 // Probe colours, far apart in hue; past the last one the dash changes so lines stay distinguishable.
 constexpr const char* probe_colours[] = {"#1f4e79", "#b8322a", "#2e7d4f", "#7b3f98", "#c77c12", "#17808a", "#6b4f2a", "#b03a78"};
-
-std::vector<Point> in_mm(const std::vector<std::array<double, 2>>& points) {
-    std::vector<Point> out;
-    out.reserve(points.size());
-    for (const auto& p : points) out.push_back({p[0] * 1e3, p[1] * 1e3});
-    return out;
-}
-
-struct Box {
-    double y0 = std::numeric_limits<double>::infinity(), y1 = -y0, z0 = y0, z1 = -y0;
-    void add(const std::array<double, 2>& p) {
-        if (!std::isfinite(p[0]) || !std::isfinite(p[1])) return;
-        y0 = std::min(y0, p[0]), y1 = std::max(y1, p[0]), z0 = std::min(z0, p[1]), z1 = std::max(z1, p[1]);
-    }
-    void add(const std::vector<std::array<double, 2>>& points) {
-        for (const auto& p : points) add(p);
-    }
-    bool empty() const { return !(y1 >= y0 && z1 >= z0); }
-};
 
 // The view of both section figures, in m: the weld and its heat-affected zone with a margin, kept
 // within the plates, so a leg of a few millimetres is not lost on a flange many times wider. The same
@@ -60,43 +39,23 @@ Box section_view(const ReportInput& in) {
     for (const auto* lines : {&in.fusion_line, &in.haz_ac1_line, &in.haz_ac3_line})
         for (const auto& c : *lines) weld.add(c.points);
     for (const auto& d : in.dimensions) weld.add(d.from), weld.add(d.to);
-    Box plates;
-    for (const auto& p : in.plates) plates.add(p.points);
-    if (weld.empty()) weld = plates;
-    if (weld.empty() && in.peak_map.y_faces.size() >= 2 && in.peak_map.z_faces.size() >= 2) {
+    const Box plates = bounds(in.plates);
+    // With neither weld nor plates, the peak map's extent is all there is to show.
+    if (weld.empty() && plates.empty() && in.peak_map.y_faces.size() >= 2 && in.peak_map.z_faces.size() >= 2) {
         weld.add({in.peak_map.y_faces.front(), in.peak_map.z_faces.front()});
         weld.add({in.peak_map.y_faces.back(), in.peak_map.z_faces.back()});
     }
-    if (weld.empty()) return {0, 10e-3, 0, 10e-3};
-    const double pad = 0.25 * std::max(weld.y1 - weld.y0, weld.z1 - weld.z0) + 1.5e-3;
-    Box view{weld.y0 - pad, weld.y1 + pad, weld.z0 - pad, weld.z1 + pad};
-    if (!plates.empty()) {
-        const Box within{std::max(view.y0, plates.y0), std::min(view.y1, plates.y1), std::max(view.z0, plates.z0),
-                         std::min(view.z1, plates.z1)};
-        if (!within.empty()) view = within;
-    }
-    return view;
+    return weld_view(weld, plates);
 }
 
 // Both section figures share size and side panel (legend or colour bar), so equal scaling gives
 // them the same millimetre ranges and the two can be compared point by point.
-SvgPlot section_plot(const std::string& id, const std::string& title, const Box& view) {
-    return SvgPlot(id, title, 660, 540, Axis{"y, across the flange", "mm", view.y0 * 1e3, view.y1 * 1e3},
-                   Axis{"z, up the web", "mm", view.z0 * 1e3, view.z1 * 1e3}, true, 170);
-}
-
-void draw_curves(SvgPlot& plot, const std::vector<Curve>& curves, const Stroke& stroke) {
-    for (const auto& c : curves) plot.polyline(in_mm(c.points), stroke);
-}
-
-// A note in the middle of an empty plot, so a missing figure reads as missing data, not as a fault.
-void note_in_middle(SvgPlot& plot, const std::string& note) {
-    plot.text({(plot.x_axis().lo + plot.x_axis().hi) / 2, (plot.y_axis().lo + plot.y_axis().hi) / 2}, note, Anchor::middle);
-}
+constexpr int section_panel = 170;
 
 std::string section_figure(const ReportInput& in, const Box& view) {
-    SvgPlot plot = section_plot("figure-section-plot", "Weld cross-section to scale", view);
-    for (const auto& p : in.plates) plot.polygon(in_mm(p.points), plate_edge, plate_fill);
+    SvgPlot plot = section_plot("figure-section-plot", "Weld cross-section to scale", view, section_panel);
+    std::vector<LegendEntry> legend;
+    draw_plates(plot, in.plates, legend);
     plot.polygon(in_mm(in.bead.points), bead_edge, bead_fill);
     draw_curves(plot, in.haz_ac1_line, ac1_stroke);
     draw_curves(plot, in.haz_ac3_line, ac3_stroke);
@@ -104,8 +63,6 @@ std::string section_figure(const ReportInput& in, const Box& view) {
     for (const auto& d : in.dimensions)
         plot.dimension({d.from[0] * 1e3, d.from[1] * 1e3}, {d.to[0] * 1e3, d.to[1] * 1e3},
                        d.label + ' ' + format_fixed(d.value, 2) + (d.unit.empty() ? "" : ' ' + d.unit), dimension_stroke);
-    std::vector<LegendEntry> legend;
-    if (!in.plates.empty()) legend.push_back({"plates", plate_edge, plate_fill});
     if (!in.bead.points.empty()) legend.push_back({"bead asked for", bead_edge, bead_fill});
     if (!in.fusion_line.empty()) legend.push_back({"fusion line", fusion_stroke, ""});
     if (!in.haz_ac3_line.empty()) legend.push_back({"HAZ: Ac3 reached", ac3_stroke, ""});
@@ -117,33 +74,12 @@ std::string section_figure(const ReportInput& in, const Box& view) {
 }
 
 std::string cycles_figure(const ReportInput& in) {
-    double t_max = 0, T_min = 0, T_max = 0;
-    for (const auto& c : in.cycles) {
-        for (const double t : c.time)
-            if (std::isfinite(t)) t_max = std::max(t_max, t);
-        for (const double T : c.temperature)
-            if (std::isfinite(T)) T_min = std::min(T_min, T), T_max = std::max(T_max, T);
-    }
-    // Without data the axes still show the range a reader expects (the 800–500 °C band included).
-    if (!(t_max > 0)) t_max = 10;
-    T_max = std::max(T_max * 1.05, 1000.0);
-    SvgPlot plot("figure-cycles-plot", "Thermal cycles at the probes", 660, 420, Axis{"time", "s", 0, t_max},
-                 Axis{"temperature", "°C", T_min, T_max}, false, 190);
-    plot.band_y(500, 800, band_fill);
-    plot.text({t_max, 650}, "800–500 °C", Anchor::end, -6, 4);
-    std::vector<LegendEntry> legend;
-    for (std::size_t i = 0; i < in.cycles.size(); ++i) {
-        const Stroke s{probe_colours[i % std::size(probe_colours)], 1.8, i < std::size(probe_colours) ? "" : "7 3"};
-        std::vector<Point> points;
-        points.reserve(in.cycles[i].time.size());
-        for (std::size_t k = 0; k < in.cycles[i].time.size(); ++k)
-            points.push_back({in.cycles[i].time[k], in.cycles[i].temperature[k]});
-        plot.polyline(points, s);
-        legend.push_back({in.cycles[i].name, s, ""});
-    }
-    plot.legend(legend);
-    if (in.cycles.empty()) note_in_middle(plot, "no probe cycles recorded");
-    return plot.svg();
+    std::vector<LegendEntry> lines;
+    for (std::size_t i = 0; i < in.cycles.size(); ++i)
+        lines.push_back({in.cycles[i].name,
+                         {probe_colours[i % std::size(probe_colours)], 1.8, i < std::size(probe_colours) ? "" : "7 3"},
+                         ""});
+    return cycles_svg("figure-cycles-plot", "Thermal cycles at the probes", in.cycles, lines, 190, "no probe cycles recorded");
 }
 
 std::string peak_map_figure(const ReportInput& in, const Box& view) {
@@ -153,7 +89,7 @@ std::string peak_map_figure(const ReportInput& in, const Box& view) {
         if (std::isfinite(v)) lo = std::min(lo, v), hi = std::max(hi, v);
     const bool any = hi >= lo;
     if (!any) lo = 0, hi = 1;
-    SvgPlot plot = section_plot("figure-peak-map-plot", "Peak temperature on the cross-section", view);
+    SvgPlot plot = section_plot("figure-peak-map-plot", "Peak temperature on the cross-section", view, section_panel);
     const auto mm = [](const std::vector<double>& faces) {
         std::vector<double> out(faces.size());
         std::transform(faces.begin(), faces.end(), out.begin(), [](double f) { return f * 1e3; });
@@ -169,10 +105,7 @@ std::string peak_map_figure(const ReportInput& in, const Box& view) {
 }
 
 void validate(const ReportInput& in) {
-    for (const auto& c : in.cycles)
-        if (c.time.size() != c.temperature.size())
-            throw std::invalid_argument("report: cycle \"" + c.name + "\" has " + std::to_string(c.time.size()) +
-                                        " times but " + std::to_string(c.temperature.size()) + " temperatures");
+    for (const auto& c : in.cycles) check_cycle(c, "report");
     const auto& m = in.peak_map;
     const std::size_t cells = m.y_faces.size() >= 2 && m.z_faces.size() >= 2 ? (m.y_faces.size() - 1) * (m.z_faces.size() - 1) : 0;
     if (m.values.size() != cells)

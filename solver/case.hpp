@@ -55,6 +55,10 @@ struct ProcedureSpec {
     double arc_efficiency = 0;         // net / electrical power
     std::string arc_efficiency_source; // where the value comes from
     std::optional<double> net_power;   // W, when given instead of efficiency x U x I
+    // Waveform-controlled welding: the instantaneous power (ISO/TR 18491; solver/waveform.hpp)
+    // that replaces U x I in arc energy and heat input, and where it came from.
+    std::optional<double> instantaneous_power;  // W
+    std::string power_basis = "mean voltage x mean current";
     std::optional<double> interpass_wait;  // s between the passes of a two-sided joint
 };
 

@@ -3,8 +3,10 @@
 #include "solver/case_reader.hpp"
 
 #include "solver/integrators.hpp"
+#include "solver/number_table.hpp"
 #include "solver/procedure.hpp"
 #include "solver/run_estimate.hpp"
+#include "solver/waveform.hpp"
 
 #include <array>
 #include <cmath>
@@ -150,6 +152,58 @@ MaterialSpec read_material(CaseDocument& doc, std::string_view section, bool fil
     return m;
 }
 
+// [procedure.waveform]: the instantaneous power of waveform-controlled welding, one way of three:
+// recorded samples, a meter's energy over a weld length, or the meter's mean power.
+void read_waveform_power(Section& procedure, ProcedureSpec& p, const std::string& case_path) {
+    auto w = procedure.subsection("waveform", false);
+    if (!w.present()) return;
+    const std::string samples = w.text("samples", "");
+    const auto energy = w.optional_quantity("energy", Dimension::energy, "kJ", Bounds::positive());
+    const auto length = w.optional_quantity("weld_length", Dimension::length, "mm", Bounds::positive());
+    const auto power = w.optional_quantity("power", Dimension::power, "W", Bounds::positive());
+    const int ways = int(!samples.empty()) + int(energy.has_value()) + int(power.has_value());
+    if (ways != 1) {
+        w.error(samples.empty() ? (energy ? "energy" : "power") : "samples",
+                "give exactly one of: samples (a file of time_s, voltage_V, current_A), energy with weld_length "
+                "(a meter's reading), or power (the meter's instantaneous power)");
+        return;
+    }
+    if (energy.has_value() != length.has_value()) {
+        w.error(energy ? "energy" : "weld_length", "energy and weld_length go together: the energy a meter read over "
+                                                   "that length of weld");
+        return;
+    }
+    char buf[160];
+    if (power) {
+        p.instantaneous_power = *power;
+        p.power_basis = "instantaneous power given (ISO/TR 18491)";
+    } else if (energy) {
+        // E/L is the arc energy per length; the power follows at the travel speed: P = (E/L)·v.
+        p.instantaneous_power = *energy / *length * p.travel_speed;
+        std::snprintf(buf, sizeof buf, "instantaneous energy %.4g kJ over %.4g mm (ISO/TR 18491)", *energy / 1e3,
+                      *length * 1e3);
+        p.power_basis = buf;
+    } else {
+        const std::filesystem::path file(samples);
+        const std::string path = (file.is_relative() ? std::filesystem::path(case_path).parent_path() / file : file).string();
+        try {
+            const WaveformMeans m = read_waveform(path);
+            p.instantaneous_power = m.power;
+            std::snprintf(buf, sizeof buf, "instantaneous power of %zu samples over %.4g ms (ISO/TR 18491)", m.samples,
+                          m.duration * 1e3);
+            p.power_basis = buf;
+            if (std::abs(m.current - p.current) > 0.05 * p.current || std::abs(m.voltage - p.voltage) > 0.05 * p.voltage) {
+                std::snprintf(buf, sizeof buf, "the waveform's means (%.0f A, %.1f V) differ by more than 5 %% from ",
+                              m.current, m.voltage);
+                procedure.error("current", std::string(buf) + "procedure.current and procedure.voltage; give the "
+                                                               "waveform's means there");
+            }
+        } catch (const NumberTableError& e) {
+            w.error("samples", e.what());
+        }
+    }
+}
+
 void read_procedure(Case& c, CaseDocument& doc) {
     auto s = doc.section("procedure", true);
     auto& p = c.procedure;
@@ -209,8 +263,10 @@ void read_procedure(Case& c, CaseDocument& doc) {
     if (p.interpass_wait && c.joint.sides == 1) {
         s.error("interpass_wait", "applies to a second pass; this joint has sides = 1");
     }
-    if (p.net_power && *p.net_power > p.voltage * p.current) {
-        s.error("net_power", "exceeds the electrical power U x I = " + std::to_string(p.voltage * p.current) + " W");
+    read_waveform_power(s, p, doc.path());
+    if (p.net_power && *p.net_power > electrical_power(p)) {
+        s.error("net_power", "exceeds the electrical power (" + p.power_basis + ") of " +
+                                 std::to_string(electrical_power(p)) + " W");
     }
 }
 
@@ -222,7 +278,9 @@ void read_source(Case& c, CaseDocument& doc) {
     const bool at_root = s.choice("origin", source_origins, "root") == "root";
     constexpr std::array<std::string_view, 4> keys{"half_width", "depth", "front_length", "rear_length"};
     if (!given) {
-        c.source = source_from_procedure(c.joint);
+        // Dimensions follow once the whole case is read and sound (read_case): the rule needs the
+        // procedure, the base metal and the ambient temperature.
+        c.source.from_procedure = true;
         c.source.origin_at_root = at_root;
         for (auto k : keys) {
             if (s.has(k)) s.error(k, "explicit dimensions need shape = \"given\"");
@@ -388,6 +446,11 @@ LoadedCase read_case(const std::string& path, const std::vector<Override>& overr
     read_output(c, doc);
     read_preheat_search(c, doc);
     doc.finish();  // throws on any problem so far: the checks below need a sound case
+    if (c.source.from_procedure) {
+        const bool at_root = c.source.origin_at_root;
+        c.source = source_from_procedure(c);
+        c.source.origin_at_root = at_root;
+    }
     check_grid_size(c, doc);
     doc.finish();
     c.warnings = doc.warnings();

@@ -101,8 +101,8 @@ std::string to_text(const CheckReport& r) {
                 std::string(to_string(p.transfer)).c_str(), wire.c_str(), p.current,
                 p.voltage, p.travel_speed * 1e3, std::string(to_string(p.position)).c_str());
     out += line("Heat input  %.3f kJ/mm = efficiency %.2f x arc energy %.3f kJ/mm (EN 1011-1); net power %.0f W",
-                r.heat_input * 1e-6, r.net_power / (p.voltage * p.current), r.arc_energy * 1e-6, r.net_power);
-    out += line("            efficiency: %s", p.arc_efficiency_source.c_str());
+                r.heat_input * 1e-6, r.net_power / electrical_power(p), r.arc_energy * 1e-6, r.net_power);
+    out += line("            efficiency: %s; power: %s", p.arc_efficiency_source.c_str(), p.power_basis.c_str());
     if (r.deposition) {
         const auto& d = *r.deposition;
         out += line("Deposition  %.1f mm2 per length = equal-leg fillet %.1f mm (asked %.1f mm, %+.0f %%)",
@@ -146,7 +146,8 @@ nlohmann::json to_json(const CheckReport& r) {
     out["heat_input"] = q(r.heat_input * 1e-6, "kJ/mm");
     out["arc_energy"] = q(r.arc_energy * 1e-6, "kJ/mm");
     out["net_power"] = q(r.net_power, "W");
-    out["arc_efficiency"] = {{"value", r.net_power / (p.voltage * p.current)}, {"source", p.arc_efficiency_source}};
+    out["arc_efficiency"] = {{"value", r.net_power / electrical_power(p)}, {"source", p.arc_efficiency_source}};
+    out["electrical_power"] = {{"value", electrical_power(p)}, {"unit", "W"}, {"basis", p.power_basis}};
     out["bead_area"] = q(r.bead_area * 1e6, "mm2");
     out["design_throat"] = q(r.design_throat * 1e3, "mm");
     if (r.deposition) {

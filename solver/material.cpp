@@ -1,11 +1,9 @@
 #include "solver/material.hpp"
 
+#include "solver/number_table.hpp"
+
 #include "solver/steel_en1993.hpp"
 
-#include <cerrno>
-#include <charconv>
-#include <cstring>
-#include <fstream>
 #include <limits>
 #include <sstream>
 #include <string_view>
@@ -175,150 +173,39 @@ namespace {
 constexpr std::string_view columns = "temperature_degC, conductivity_W_per_mK, specific_heat_J_per_kgK";
 constexpr double absolute_zero = -273.15;  // degC, definition of the Celsius scale (SI Brochure)
 
-struct Cell {
-    std::string_view text;
-    std::size_t column;  // 1-based
-};
-
 // One data row of the table, with where it was read.
 struct Row {
     double temperature, conductivity, specific_heat;
     std::size_t line;
 };
 
-class TableParser {
-public:
-    explicit TableParser(std::string path) : path_(std::move(path)) {}
+constexpr std::string_view column_names[] = {"temperature", "conductivity", "specific heat"};
 
-    std::vector<Row> read();
-
-private:
-    [[noreturn]] void fail(std::size_t line, std::size_t column, const std::string& what) const {
-        throw MaterialError(path_ + ":" + std::to_string(line) + ":" + std::to_string(column) + ": " + what);
-    }
-
-    void read_line(std::string_view text, std::size_t line, std::vector<Row>& rows);
-    double read_number(const Cell& cell, std::size_t line, std::string_view column_name) const;
-    void check_row(const Row& row, const std::vector<Cell>& cells, const std::vector<Row>& rows) const;
-
-    std::string path_;
-    bool header_allowed_ = true;
-};
-
-bool is_blank(char ch) { return ch == ' ' || ch == '\t' || ch == '\r' || ch == '\v' || ch == '\f'; }
-
-// The cell text between begin and end of `line`, without surrounding blanks.
-Cell trimmed_cell(std::string_view line, std::size_t begin, std::size_t end) {
-    while (begin < end && is_blank(line[begin])) ++begin;
-    while (end > begin && is_blank(line[end - 1])) --end;
-    return {line.substr(begin, end - begin), begin + 1};
-}
-
-// Cells separated by commas if the line has any (CSV; blanks around cells ignored), else by runs of blanks.
-std::vector<Cell> split_cells(std::string_view line) {
-    std::vector<Cell> cells;
-    if (line.find(',') != std::string_view::npos) {
-        std::size_t begin = 0;
-        for (std::size_t comma; (comma = line.find(',', begin)) != std::string_view::npos; begin = comma + 1)
-            cells.push_back(trimmed_cell(line, begin, comma));
-        cells.push_back(trimmed_cell(line, begin, line.size()));
-        return cells;
-    }
-    for (std::size_t pos = 0; pos < line.size();) {
-        if (is_blank(line[pos])) {
-            ++pos;
-            continue;
-        }
-        const std::size_t begin = pos;
-        while (pos < line.size() && !is_blank(line[pos])) ++pos;
-        cells.push_back({line.substr(begin, pos - begin), begin + 1});
-    }
-    return cells;
-}
-
-// A decimal number filling the whole text ("20", "-5", "+1.5e3"); from_chars also reads "nan" and "inf".
-bool parse_double(std::string_view text, double& value) {
-    if (text.size() > 1 && text.front() == '+' && text[1] != '-') text.remove_prefix(1);
-    const auto [end, ec] = std::from_chars(text.data(), text.data() + text.size(), value);
-    return ec == std::errc() && end == text.data() + text.size() && !text.empty();
-}
-
-// A header is a first content line in which no cell is a number, so a typo in a first data row ("2O, 45,
-// 440") is reported rather than skipped.
-bool is_header(const std::vector<Cell>& cells) {
-    double ignored;
-    return std::none_of(cells.begin(), cells.end(), [&](const Cell& c) { return parse_double(c.text, ignored); });
-}
-
-std::vector<Row> TableParser::read() {
-    std::ifstream in(path_);
-    if (!in) throw MaterialError(path_ + ": cannot open the property table: " + std::strerror(errno));
+// The rows, each checked: temperatures above absolute zero and increasing, k and c positive.
+std::vector<Row> read_table_rows(const std::string& path) {
     std::vector<Row> rows;
-    std::string text;
-    std::size_t line = 0;
-    while (std::getline(in, text)) {
-        ++line;
-        std::string_view view = text;
-        if (line == 1 && view.starts_with("\xEF\xBB\xBF")) view.remove_prefix(3);  // UTF-8 byte-order mark
-        read_line(view.substr(0, view.find('#')), line, rows);
+    try {
+        for (const NumberRow& r : read_number_table(path, {"property table", column_names, columns}, 2)) {
+            const auto& c = r.cells;
+            const auto fail = [&](std::size_t i, const std::string& what) { number_table_error(path, r.line, c[i].column, what); };
+            const auto shown = [&](std::size_t i) { return "'" + c[i].text + "'"; };
+            const Row row{c[0].value, c[1].value, c[2].value, r.line};
+            if (!(row.temperature > absolute_zero))
+                fail(0, "temperature " + shown(0) + " degC is not allowed; it must be above " + number(absolute_zero) +
+                            " degC (absolute zero)");
+            if (!rows.empty() && !(row.temperature > rows.back().temperature))
+                fail(0, "temperature " + shown(0) + " degC is not above " + number(rows.back().temperature) +
+                            " degC of the previous row (line " + std::to_string(rows.back().line) +
+                            "); temperatures must increase strictly from row to row");
+            if (!(row.conductivity > 0)) fail(1, "conductivity " + shown(1) + " W/(m K) is not allowed; it must be positive");
+            if (!(row.specific_heat > 0))
+                fail(2, "specific heat " + shown(2) + " J/(kg K) is not allowed; it must be positive");
+            rows.push_back(row);
+        }
+    } catch (const NumberTableError& e) {
+        throw MaterialError(e.what());
     }
-    if (in.bad()) throw MaterialError(path_ + ": cannot read the property table: " + std::strerror(errno));
-    if (rows.size() < 2)
-        fail(rows.empty() ? std::max<std::size_t>(line, 1) : rows.front().line, 1,
-             std::string(rows.empty() ? "the table has no data row" : "the table has only this one data row") +
-                 "; at least 2 rows of " + std::string(columns) + " are needed");
     return rows;
-}
-
-void TableParser::read_line(std::string_view text, std::size_t line, std::vector<Row>& rows) {
-    const std::vector<Cell> cells = split_cells(text);
-    if (cells.empty()) return;  // blank or comment-only line
-    if (header_allowed_ && is_header(cells)) {
-        header_allowed_ = false;
-        return;
-    }
-    header_allowed_ = false;
-    if (cells.size() != 3)
-        fail(line, cells.size() > 3 ? cells[3].column : 1,
-             "the row '" + std::string(text.substr(cells.front().column - 1)) + "' has " +
-                 std::to_string(cells.size()) + " cells; expected 3: " + std::string(columns));
-    const Row row{read_number(cells[0], line, "temperature"), read_number(cells[1], line, "conductivity"),
-                  read_number(cells[2], line, "specific heat"), line};
-    check_row(row, cells, rows);
-    rows.push_back(row);
-}
-
-double TableParser::read_number(const Cell& cell, std::size_t line, std::string_view column_name) const {
-    const std::string shown = "'" + std::string(cell.text) + "'";
-    const std::string where = std::string(column_name) + " ";
-    if (cell.text.empty())
-        fail(line, cell.column, where + "cell is empty; expected a decimal number such as 20, 45.5 or 6.1e2");
-    double value;
-    if (!parse_double(cell.text, value))
-        fail(line, cell.column,
-             where + shown + " is not a number; expected a decimal number such as 20, 45.5 or 6.1e2");
-    if (!std::isfinite(value))
-        fail(line, cell.column, where + shown + " is not a finite number; NaN and infinity are not allowed");
-    return value;
-}
-
-void TableParser::check_row(const Row& row, const std::vector<Cell>& cells, const std::vector<Row>& rows) const {
-    const auto shown = [&](std::size_t i) { return "'" + std::string(cells[i].text) + "'"; };
-    if (!(row.temperature > absolute_zero))
-        fail(row.line, cells[0].column,
-             "temperature " + shown(0) + " degC is not allowed; it must be above " + number(absolute_zero) +
-                 " degC (absolute zero)");
-    if (!rows.empty() && !(row.temperature > rows.back().temperature))
-        fail(row.line, cells[0].column,
-             "temperature " + shown(0) + " degC is not above " + number(rows.back().temperature) +
-                 " degC of the previous row (line " + std::to_string(rows.back().line) +
-                 "); temperatures must increase strictly from row to row");
-    if (!(row.conductivity > 0))
-        fail(row.line, cells[1].column,
-             "conductivity " + shown(1) + " W/(m K) is not allowed; it must be positive");
-    if (!(row.specific_heat > 0))
-        fail(row.line, cells[2].column,
-             "specific heat " + shown(2) + " J/(kg K) is not allowed; it must be positive");
 }
 
 // y(x) linear between the rows, held at the end values beyond them.
@@ -335,7 +222,7 @@ PropertyFunction interpolate(std::vector<double> x, std::vector<double> y) {
 }  // namespace
 
 Material read_property_table(const std::string& path, double density, const MaterialParameters& parameters) {
-    const std::vector<Row> rows = TableParser(path).read();
+    const std::vector<Row> rows = read_table_rows(path);
     std::vector<double> T, k, c;
     for (const Row& r : rows) {
         T.push_back(r.temperature);

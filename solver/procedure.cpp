@@ -1,5 +1,7 @@
 #include "solver/procedure.hpp"
 
+#include "solver/material.hpp"
+
 #include <algorithm>
 #include <array>
 #include <cmath>
@@ -26,11 +28,11 @@ EfficiencyDefault default_arc_efficiency(Process process) {
     return {0.8, "EN 1011-1 thermal efficiency factor k for MIG/MAG"};
 }
 
-double arc_energy(const ProcedureSpec& p) { return p.voltage * p.current / p.travel_speed; }
+double electrical_power(const ProcedureSpec& p) { return p.instantaneous_power.value_or(p.voltage * p.current); }
 
-double net_power(const ProcedureSpec& p) {
-    return p.net_power ? *p.net_power : p.arc_efficiency * p.voltage * p.current;
-}
+double arc_energy(const ProcedureSpec& p) { return electrical_power(p) / p.travel_speed; }
+
+double net_power(const ProcedureSpec& p) { return p.net_power ? *p.net_power : p.arc_efficiency * electrical_power(p); }
 
 double heat_input(const ProcedureSpec& p) { return net_power(p) / p.travel_speed; }
 
@@ -55,20 +57,51 @@ std::optional<Deposition> deposition(const Case& c) {
     return d;
 }
 
-SourceShape source_from_procedure(const mesh::JointGeometry& j) {
+TransferPreset transfer_preset(Process process, Transfer transfer) {
+    switch (process) {
+        case Process::saw: return {"submerged arc", 2300, 1.0, 0.35, "arc force of high current under flux"};
+        case Process::smaw: return {"manual metal arc", 2200, 0.3, 0.30, "drops across a short arc"};
+        case Process::fcaw: return {"flux-cored", 2300, 0.5, 0.35, "mostly large, partly axial drops"};
+        case Process::gmaw: break;
+    }
+    switch (transfer) {
+        case Transfer::short_circuit: return {"short-circuit", 1900, 0.0, 0.35, "metal handed over in short circuits"};
+        case Transfer::globular: return {"globular", 2200, 0.5, 0.40, "large drops, irregular paths"};
+        case Transfer::spray: return {"spray", 2500, 1.0, 0.45, "fine axial stream of free-flight droplets"};
+        case Transfer::pulsed_spray: return {"pulsed spray", 2400, 1.0, 0.40, "one axial drop per pulse"};
+        case Transfer::none: break;
+    }
+    return {"gas-metal-arc", 2200, 0.5, 0.40, "transfer mode not given"};
+}
+
+double droplet_heat_share(const Case& c) {
+    const auto& p = c.procedure;
+    const TransferPreset preset = transfer_preset(p.process, p.transfer);
+    if (!p.wire_feed_speed || p.wire_diameter <= 0) return preset.typical_droplet_share;
+    const MaterialParameters melting{c.base.solidus, c.base.liquidus, c.base.latent_heat, 1.0};
+    const Material steel = make_en1993_steel(melting);
+    const double density = 7850;  // kg/m³, EN 1993-1-2
+    const double per_kg = (steel.enthalpy(preset.droplet_temperature) - steel.enthalpy(c.temperatures.ambient)) / density;
+    const double mass_rate = density * std::numbers::pi * p.wire_diameter * p.wire_diameter / 4 * *p.wire_feed_speed;
+    return std::clamp(mass_rate * per_kg / net_power(p), 0.0, 0.7);
+}
+
+SourceShape source_from_procedure(const Case& c) {
     // The depth axis points along the torch into the root; the origin is the root corner where
-    // the arc is aimed (or the bead face, by choice). Half-width = half the face width (the chord between toes),
-    // depth = design throat (root to face), front length = half-width and rear length = twice
-    // that, after the proportions Goldak et al. (1984) suggest for a first guess (from memory).
-    // A rule of thumb: calibrate against a macro-section before trusting fusion depths.
+    // the arc is aimed (or the bead face, by choice). See the header for the rule.
+    const auto& j = c.joint;
+    const TransferPreset preset = transfer_preset(c.procedure.process, c.procedure.transfer);
+    const double share = droplet_heat_share(c);
     const double chord = std::hypot(j.leg_flange, j.leg_web);
     SourceShape s;
     s.from_procedure = true;
     s.half_width = chord / 2.0;
-    s.depth = j.leg_flange * j.leg_web / chord;
+    s.depth = j.leg_flange * j.leg_web / chord * (1 + preset.impact * share);
     s.front_length = s.half_width;
     s.rear_length = 2.0 * s.half_width;
-    s.rule = "rule of thumb from the bead size: a = face width/2, b = design throat, c_f = a, c_r = 2a";
+    s.rule = fmt("rule of thumb from the bead and the transfer: a = face width/2, c_f = a, c_r = 2a, b = design "
+                 "throat x (1 + impact %.1f x droplet share %.2f)", preset.impact, share) +
+             " (" + std::string(preset.name) + ": " + std::string(preset.basis) + ")";
     return s;
 }
 

@@ -18,7 +18,10 @@ struct EfficiencyDefault {
 // Thermal efficiency factor k of the process (EN 1011-1:2009 Table 1, also ISO/TR 17671-1).
 EfficiencyDefault default_arc_efficiency(Process process);
 
-// Arc energy per unit length E = U·I / v [J/m] (EN 1011-1).
+// Electrical power of the arc: the instantaneous power of a waveform when the case gives one
+// (ISO/TR 18491), else U·I [W].
+double electrical_power(const ProcedureSpec& p);
+// Arc energy per unit length E = U·I / v [J/m] (EN 1011-1), with U·I the electrical power above.
 double arc_energy(const ProcedureSpec& p);
 // Net power into the work: the given net power, else η·U·I [W].
 double net_power(const ProcedureSpec& p);
@@ -40,8 +43,37 @@ std::optional<Deposition> deposition(const Case& c);
 // A = l²/2 + s·(2√2/3)·l·c  ⇒  l = −s·k + √(k² + 2A), k = (2√2/3)·c.
 double equal_leg_for_area(double area, mesh::FaceShape face, double convexity);
 
-// Goldak dimensions from the bead the procedure lays: a rule of thumb until calibrated.
-SourceShape source_from_procedure(const mesh::JointGeometry& joint);
+// How a process or transfer mode carries metal and heat into the root (rule of thumb, values
+// from memory; the fit command calibrates what matters):
+// - droplet_temperature: of the metal as it reaches the pool [°C];
+// - impact: how much of the droplets' heat is driven deep along the arc axis (1: a fine axial
+//   stream of free-flight droplets, spray or one drop per pulse; 0: metal handed over by short
+//   circuits, no free flight; between: large irregular drops, or arc force under flux);
+// - typical_droplet_share: the droplets' share of the net arc power, used when the case gives no
+//   wire feed to compute it from.
+struct TransferPreset {
+    std::string_view name;
+    double droplet_temperature;
+    double impact;
+    double typical_droplet_share;
+    std::string_view basis;
+};
+TransferPreset transfer_preset(Process process, Transfer transfer);
+
+// Share of the net arc power the filler droplets carry in: wire mass rate × rise of the steel's
+// enthalpy (EN 1993-1-2 with the base metal's melting range and latent heat) from the ambient
+// temperature (the wire is not preheated) to
+// the droplet temperature, over the net power; capped at 0.7. The preset's typical share without
+// wire data.
+double droplet_heat_share(const Case& c);
+
+// Goldak dimensions from the bead the procedure lays, a rule of thumb until calibrated:
+//   a = face width/2, c_f = a, c_r = 2a (Goldak et al. 1984 first-guess proportions, from memory),
+//   b = design throat × (1 + impact × droplet share):
+// a fine axial stream of superheated droplets digs the "finger" of spray transfer deeper than the
+// arc alone (Essers & Walter 1981, Weld. J. 60:37s, from memory), while short-circuit transfer
+// lays its metal on the surface. The case's joint, procedure, base metal and ambient must be read.
+SourceShape source_from_procedure(const Case& c);
 
 // Transition current from globular to spray transfer for solid steel wire in argon-rich gas,
 // by wire diameter [m] → [A] (common practice, no source; values from memory).

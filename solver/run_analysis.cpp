@@ -211,6 +211,14 @@ post::Summary make_summary(const Case& c, const RunResult& result, const RunAnal
     num("Energy", "end_time", "stopped at", result.end_time, "s", 1);
     num("Energy", "run_time", "run time", wall, "s", 1);
     if (x.lack_of_fusion_flange) s.add_note("Fusion", "LACK OF FUSION into the flange predicted");
+    // Short-circuit transfer on thick plate is known for cold lap (common practice, no source): say
+    // so when this run's own fusion into the flange is shallow.
+    if (c.procedure.transfer == Transfer::short_circuit && x.penetration_flange < shallow_fusion) {
+        char buf[200];
+        std::snprintf(buf, sizeof buf, "short-circuit transfer fuses only %.2f mm into the flange: risk of cold lap "
+                                       "(incomplete fusion); confirm by a macro-etch", x.penetration_flange * 1e3);
+        s.add_note("Fusion", buf);
+    }
     if (x.lack_of_fusion_web) s.add_note("Fusion", "LACK OF FUSION into the web predicted");
     if (a.composition_assumed) {
         s.add_note("HAZ", "no composition in the case: Ac1/Ac3 from a typical C-Mn steel (C 0.20, Mn 1.40, Si 0.30)");

@@ -44,6 +44,10 @@ Composition haz_composition(const Case& c, bool& assumed);
 // Solidus, Ac1 and Ac3 (Andrews 1965) of the base metal.
 post::SectionLevels section_levels(const Case& c);
 
+// Fusion into the flange below which short-circuit transfer is flagged for cold lap [m]
+// (common practice, no source).
+inline constexpr double shallow_fusion = 0.5e-3;
+
 // Probe offsets into the HAZ beyond the fusion line, normal to each plate [m].
 inline constexpr std::array<double, 3> haz_probe_offsets{0.5e-3, 1e-3, 2e-3};
 

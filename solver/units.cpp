@@ -34,6 +34,7 @@ DimensionInfo info(Dimension dim) {
         case Dimension::energy_per_length: return {"energy per length", "J/m", "1.1 kJ/mm"};
         case Dimension::hydrogen: return {"diffusible hydrogen", "ml/100g", "5 ml/100g"};
         case Dimension::specific_energy: return {"energy per mass", "J/kg", "270 kJ/kg"};
+        case Dimension::energy: return {"energy", "J", "85 kJ"};
         case Dimension::fraction: return {"fraction", "1", "80 %"};
     }
     throw std::invalid_argument("heatbead::units: invalid Dimension value");
@@ -110,6 +111,9 @@ std::span<const Unit> units() {
         {"ml/100g", hydrogen},
         {"J/kg", specific_energy},
         {"kJ/kg", specific_energy, 1000},
+        {"J", energy},
+        {"kJ", energy, 1000},
+        {"MJ", energy, 1e6},
         {"%", fraction, 1, 100},
     };
     return table;

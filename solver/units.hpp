@@ -13,7 +13,7 @@ namespace heatbead::units {
 //     length m, speed m/s, temperature degC, time s, current A, voltage V, power W, angle rad,
 //     heat_transfer_coefficient W/(m2 K), conductivity W/(m K), memory byte,
 //     energy_per_length J/m, hydrogen ml/100g (diffusible hydrogen per 100 g of weld metal),
-//     specific_energy J/kg (latent heat),
+//     specific_energy J/kg (latent heat), energy J (an arc-energy meter's reading),
 //     fraction 1 (0..1, so 80 % is 0.8).
 //
 // These are SI units with one deliberate exception: temperatures are held in degrees Celsius, not
@@ -35,6 +35,7 @@ enum class Dimension {
     energy_per_length,
     hydrogen,
     specific_energy,
+    energy,
     fraction
 };
 

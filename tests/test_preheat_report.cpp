@@ -16,7 +16,10 @@
 #include <stdexcept>
 
 using namespace heatbead::post;
+using heatbead::testing::check_self_contained;
 using heatbead::testing::count;
+using heatbead::testing::figure_of;
+using heatbead::testing::part;
 using heatbead::testing::read_file;
 using heatbead::testing::sample_path;
 
@@ -49,29 +52,11 @@ PreheatReportInput sample_input() {
     return in;
 }
 
-// The part of the page from the element that starts with `opening` to the first `closing` after it.
-std::string part(const std::string& html, const std::string& opening, const std::string& closing) {
-    const auto from = html.find(opening);
-    REQUIRE(from != std::string::npos);
-    return html.substr(from, html.find(closing, from) - from);
-}
-
-std::string figure_of(const std::string& html, const std::string& id) {
-    return part(html, "<figure id=\"" + id + "\"", "</figure>");
-}
-
 }  // namespace
 
 TEST_CASE("the preheat report needs nothing from outside and holds its three figures", "[preheat report]") {
     const std::string html = render_preheat_report(sample_input());
-    CHECK(html.starts_with("<!DOCTYPE html>"));
-    CHECK(html.ends_with("</html>\n"));
-    CHECK(count(html, "http://") == 0);
-    CHECK(count(html, "https://") == 0);
-    CHECK(count(html, "<script") == 0);
-    CHECK(count(html, "src=") == 0);
-    CHECK(count(html, "@import") == 0);
-    CHECK(count(html, "url(") == count(html, "url(#"));  // only references to clip paths on the page
+    check_self_contained(html);
     for (const char* id : {"figure-preheat-hardness", "figure-preheat-cooling", "figure-preheat-hydrogen"})
         CHECK(count(html, "id=\"" + std::string(id) + "\"") == 1);
     CHECK(count(html, "<svg") == 3);

@@ -3,6 +3,7 @@
 #include "solver/case_reader.hpp"
 #include "solver/procedure.hpp"
 #include "solver/steel_en1993.hpp"
+#include "solver/waveform.hpp"
 
 #include <catch2/catch.hpp>
 
@@ -89,6 +90,69 @@ TEST_CASE("spray transition current rises with wire diameter", "[procedure]") {
     CHECK(spray_transition_current(1.2e-3) == Approx(220));
     CHECK(spray_transition_current(1.0e-3) < spray_transition_current(1.2e-3));
     CHECK(spray_transition_current(1.6e-3) > spray_transition_current(1.2e-3));
+}
+
+TEST_CASE("every process preset's arc efficiency is the EN 1011-1 factor", "[procedure]") {
+    // EN 1011-1 (also ISO/TR 17671-1) thermal efficiency factor k: submerged arc 1.0; manual metal
+    // arc, MIG/MAG and flux-cored 0.8 (shared REFERENCES §4). Every gas-metal-arc transfer mode is
+    // MIG/MAG for the standard.
+    CHECK(default_arc_efficiency(Process::saw).value == 1.0);
+    CHECK(default_arc_efficiency(Process::smaw).value == 0.8);
+    CHECK(default_arc_efficiency(Process::fcaw).value == 0.8);
+    CHECK(default_arc_efficiency(Process::gmaw).value == 0.8);
+    for (const char* transfer : {"short_circuit", "globular", "spray", "pulsed_spray"}) {
+        const Case c = with({std::string("procedure.transfer=\"") + transfer + "\""});
+        CHECK(c.procedure.arc_efficiency == 0.8);
+        CHECK(c.procedure.arc_efficiency_source.find("EN 1011-1") != std::string::npos);
+    }
+}
+
+TEST_CASE("waveform heat input from the instantaneous power (ISO/TR 18491)", "[procedure]") {
+    // Hand computation from the ISO/TR 18491 definition, E = Σ u·i·Δt and P = E/T, for one pulse
+    // period: 400 A at 32 V for 2 ms, then 60 A at 22 V for 6 ms:
+    //   E = 32·400·0.002 + 22·60·0.006 = 25.6 + 7.92 = 33.52 J over 8 ms → P = 4190 W;
+    //   means ū = (32·2 + 22·6)/8 = 24.5 V, ī = (400·2 + 60·6)/8 = 145 A, ū·ī = 3552.5 W (15 % low).
+    const std::vector<double> t{0, 0.002, 0.008}, u{32, 22, 32}, i{400, 60, 400};
+    const WaveformMeans m = waveform_means(t, u, i);
+    CHECK(m.power == Approx(4190).epsilon(1e-12));
+    CHECK(m.voltage == Approx(24.5).epsilon(1e-12));
+    CHECK(m.current == Approx(145).epsilon(1e-12));
+    CHECK(m.voltage * m.current == Approx(3552.5).epsilon(1e-12));
+    // The same period from a case's recorded file: heat input k·P/v = 0.8·4190/5 = 670.4 J/mm.
+    const std::string pulsed = std::string(HEATBEAD_SOURCE_DIR) + "/tests/cases/pulsed_waveform.toml";
+    const Case c = read_case(pulsed, {}).value;
+    REQUIRE(c.procedure.instantaneous_power);
+    CHECK(electrical_power(c.procedure) == Approx(4190).epsilon(1e-12));
+    CHECK(heat_input(c.procedure) * 1e-3 == Approx(670.4).epsilon(1e-12));
+    CHECK(arc_energy(c.procedure) * 1e-3 == Approx(838).epsilon(1e-12));
+    // A meter's energy over a weld length (ASME IX QW-409.1): 50 kJ over 100 mm is 500 J/mm of arc
+    // energy, 400 J/mm of heat input with k = 0.8, whatever the travel speed.
+    const Case meter = read_case(pulsed, {{"procedure.waveform.samples", "\"\""},
+                                          {"procedure.waveform.energy", "\"50 kJ\""},
+                                          {"procedure.waveform.weld_length", "100"}})
+                           .value;
+    CHECK(arc_energy(meter.procedure) * 1e-3 == Approx(500).epsilon(1e-12));
+    CHECK(heat_input(meter.procedure) * 1e-3 == Approx(400).epsilon(1e-12));
+    CHECK_THROWS(waveform_means(std::vector<double>{0, 0}, std::vector<double>{1, 1}, std::vector<double>{1, 1}));
+}
+
+TEST_CASE("spray's source reaches deeper than short-circuit's for the same bead", "[procedure]") {
+    // The rule of procedure.hpp: b = design throat × (1 + impact × droplet share); short-circuit
+    // transfer has no free flight (impact 0), spray a fine axial stream (impact 1) (common
+    // practice, no source: spray transfer penetrates deeper than short-circuit transfer).
+    const Case sc = with({"procedure.transfer=\"short_circuit\"", "procedure.wire_diameter=1.2", "procedure.wire_feed=8"});
+    const Case spray = with({"procedure.transfer=\"spray\"", "procedure.wire_diameter=1.2", "procedure.wire_feed=8"});
+    const double throat = 6.0 / std::numbers::sqrt2 * 1e-3;  // equal 6 mm legs: l/√2
+    CHECK(sc.source.depth == Approx(throat).epsilon(1e-12));
+    CHECK(spray.source.depth == Approx(throat * (1 + droplet_heat_share(spray))).epsilon(1e-12));
+    CHECK(spray.source.depth > 1.2 * sc.source.depth);
+    CHECK(spray.source.half_width == sc.source.half_width);  // the bead's width sets the width
+    // The droplets' share of the net power: mass rate × enthalpy rise over the net power. By hand:
+    // 7850 kg/m³ × π(0.6 mm)² × 8 m/min = 1.184 g/s; steel takes about 1.6–1.9 MJ/kg from 20 °C
+    // to 2500 °C (c ≈ 0.45–0.8 kJ/(kg K) with the latent heat 277 kJ/kg), so 1.9–2.2 kW of
+    // 0.8 × 20 V × 200 A = 3.2 kW: about 0.6–0.7, capped at 0.7.
+    CHECK(droplet_heat_share(spray) > 0.55);
+    CHECK(droplet_heat_share(spray) <= 0.7);
 }
 
 TEST_CASE("EN 1993-1-2 carbon steel properties", "[material]") {

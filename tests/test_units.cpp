@@ -55,7 +55,7 @@ const std::vector<Dimension> all_dimensions = {
     Dimension::current,      Dimension::voltage, Dimension::power,            Dimension::angle,
     Dimension::heat_transfer_coefficient,        Dimension::conductivity,     Dimension::memory,
     Dimension::energy_per_length,                Dimension::hydrogen,         Dimension::specific_energy,
-    Dimension::fraction,
+    Dimension::energy,                           Dimension::fraction,
 };
 
 }  // namespace
@@ -165,6 +165,9 @@ TEST_CASE("welding electrical quantities, time, angle, memory, heat input, hydro
     CHECK_THROWS(parse("H5", length));
     // Latent heat per mass: 1 kJ/kg = 1000 J/kg (SI prefix).
     CHECK(parse("277 kJ/kg", specific_energy) == near(277e3));
+    // An arc-energy meter's reading: 1 kJ = 1000 J, 1 MJ = 10^6 J (SI prefixes).
+    CHECK(parse("85 kJ", energy) == near(85e3));
+    CHECK(parse("0.085 MJ", energy) == near(85e3));
     // 1 % = 0.01 (NIST SP 811).
     CHECK(parse("80 %", fraction) == near(0.8));
     CHECK(parse("80%", fraction) == near(0.8));
