@@ -5,6 +5,7 @@
 #include <filesystem>
 #include <optional>
 #include <string>
+#include <utility>
 #include <vector>
 
 namespace heatbead::post {
@@ -24,6 +25,8 @@ public:
     void add(SummaryItem item) { items_.push_back(std::move(item)); }
     void add_note(std::string group, std::string note) { notes_.push_back({std::move(group), std::move(note)}); }
     const std::vector<SummaryItem>& items() const { return items_; }
+    // (group, note) pairs, in the order added.
+    const std::vector<std::pair<std::string, std::string>>& notes() const { return notes_; }
     // One line per group: "Group      label value unit, label value unit, ..." then the notes.
     std::string to_text() const;
     std::string to_json() const;

@@ -4,6 +4,7 @@
 #include "solver/case_reader.hpp"
 #include "solver/bench.hpp"
 #include "solver/check.hpp"
+#include "solver/compare_command.hpp"
 #include "solver/exit_codes.hpp"
 #include "solver/preheat_command.hpp"
 #include "solver/run_command.hpp"
@@ -38,6 +39,23 @@ LoadedCase load(const CommonOptions& o) {
     std::vector<Override> overrides;
     for (const auto& s : o.sets) overrides.push_back(parse_override(s));
     return read_case(o.case_path, overrides);
+}
+
+// Every case with the same overrides; the problems of all of them are reported together.
+std::vector<LoadedCase> load_all(const std::vector<std::string>& paths, const std::vector<std::string>& sets) {
+    std::vector<Override> overrides;
+    for (const auto& s : sets) overrides.push_back(parse_override(s));
+    std::vector<LoadedCase> cases;
+    std::vector<Diagnostic> problems;
+    for (const auto& path : paths) {
+        try {
+            cases.push_back(read_case(path, overrides));
+        } catch (const CaseError& e) {
+            problems.insert(problems.end(), e.diagnostics().begin(), e.diagnostics().end());
+        }
+    }
+    if (!problems.empty()) throw CaseError(std::move(problems));
+    return cases;
 }
 
 int check_command(const CommonOptions& o, bool resolved) {
@@ -87,6 +105,19 @@ int run_command_line(int argc, char** argv) {
     preheat->add_option("--threads", preheat_extra.threads, "OpenMP threads per run (default: cores / jobs)")
         ->check(CLI::Range(1, 1024));
 
+    auto* compare = app.add_subcommand("compare", "run procedures for the same joint and set them side by side");
+    std::vector<std::string> compare_cases, compare_sets;
+    CompareOptions compare_extra;
+    bool no_preheat = false;
+    compare->add_option("cases", compare_cases, "two or more case files (TOML) for the same joint")->required()->expected(2, 64);
+    compare->add_option("--set", compare_sets, "override a case key in every case (repeatable)")->type_size(1)->allow_extra_args(false);
+    compare->add_option("--out", compare_extra.out_dir, "folder for the files written")->capture_default_str();
+    compare->add_flag("--quiet", compare_extra.quiet, "print nothing but errors");
+    compare->add_flag("--no-preheat", no_preheat, "skip the preheat search of cases with a composition and hydrogen");
+    compare->add_option("--jobs", compare_extra.jobs, "runs at a time (default: one per core)")->check(CLI::Range(1, 256));
+    compare->add_option("--threads", compare_extra.threads, "OpenMP threads per run (default: cores / jobs)")
+        ->check(CLI::Range(1, 1024));
+
     auto* bench = app.add_subcommand("bench", "measure speed on the reference case (ratios from one run)");
     BenchOptions bench_options;
     bench->add_option("case", bench_options.case_path, "reference case file")->capture_default_str();
@@ -105,6 +136,10 @@ int run_command_line(int argc, char** argv) {
             preheat_extra.out_dir = preheat_options.out_dir;
             preheat_extra.quiet = preheat_options.quiet;
             return preheat_command(load(preheat_options), preheat_extra);
+        }
+        if (compare->parsed()) {
+            compare_extra.preheat = !no_preheat;
+            return compare_command(load_all(compare_cases, compare_sets), compare_extra);
         }
         if (run->parsed()) {
             run_extra.out_dir = run_options.out_dir;

@@ -93,15 +93,19 @@ SourceShape source_from_procedure(const Case& c) {
     const TransferPreset preset = transfer_preset(c.procedure.process, c.procedure.transfer);
     const double share = droplet_heat_share(c);
     const double chord = std::hypot(j.leg_flange, j.leg_web);
+    const double a_arc = chord / 2.0, b_arc = j.leg_flange * j.leg_web / chord;
+    const double a_drop = c.procedure.wire_diameter > 0 ? 2 * c.procedure.wire_diameter : a_arc / 2, b_drop = 2 * b_arc;
+    const double f = preset.impact * share;
     SourceShape s;
     s.from_procedure = true;
-    s.half_width = chord / 2.0;
-    s.depth = j.leg_flange * j.leg_web / chord * (1 + preset.impact * share);
+    s.half_width = std::sqrt((1 - f) * a_arc * a_arc + f * a_drop * a_drop);
+    s.depth = std::sqrt((1 - f) * b_arc * b_arc + f * b_drop * b_drop);
     s.front_length = s.half_width;
     s.rear_length = 2.0 * s.half_width;
-    s.rule = fmt("rule of thumb from the bead and the transfer: a = face width/2, c_f = a, c_r = 2a, b = design "
-                 "throat x (1 + impact %.1f x droplet share %.2f)", preset.impact, share) +
-             " (" + std::string(preset.name) + ": " + std::string(preset.basis) + ")";
+    s.rule = fmt("rule of thumb from the bead and the transfer: the arc over the bead (a = face width/2, b = design "
+                 "throat) and a droplet column carrying %.2f of the heat (impact %.1f", f, preset.impact) +
+             fmt(" x droplet share %.2f), one ellipsoid of the same moments; c_f = a, c_r = 2a", share) + " (" +
+             std::string(preset.name) + ": " + std::string(preset.basis) + ")";
     return s;
 }
 

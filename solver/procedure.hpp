@@ -67,12 +67,17 @@ TransferPreset transfer_preset(Process process, Transfer transfer);
 // wire data.
 double droplet_heat_share(const Case& c);
 
-// Goldak dimensions from the bead the procedure lays, a rule of thumb until calibrated:
-//   a = face width/2, c_f = a, c_r = 2a (Goldak et al. 1984 first-guess proportions, from memory),
-//   b = design throat × (1 + impact × droplet share):
-// a fine axial stream of superheated droplets digs the "finger" of spray transfer deeper than the
-// arc alone (Essers & Walter 1981, Weld. J. 60:37s, from memory), while short-circuit transfer
-// lays its metal on the surface. The case's joint, procedure, base metal and ambient must be read.
+// Goldak dimensions from the bead the procedure lays, a rule of thumb until calibrated. The heat
+// comes in two parts, lumped into one ellipsoid with the same power-weighted second moments:
+// - the arc's, over the bead: half-width a_arc = face width/2, depth b_arc = design throat;
+// - the droplets' driven share f = impact × droplet share, in a narrow column down the torch axis:
+//   half-width a_drop = 2 wire diameters (a_arc/2 without wire data), depth b_drop = 2 b_arc.
+//   a = √((1 − f)·a_arc² + f·a_drop²),  b = √((1 − f)·b_arc² + f·b_drop²),  c_f = a,  c_r = 2a
+//   (c_f, c_r: Goldak et al. 1984 first-guess proportions, from memory).
+// A fine axial stream of superheated droplets concentrates the heat and digs the "finger" of spray
+// transfer (Essers & Walter 1981, Weld. J. 60:37s, from memory), while short-circuit transfer lays
+// its metal on the surface (f = 0: the arc's ellipsoid alone). The case's joint, procedure, base
+// metal and ambient must be read.
 SourceShape source_from_procedure(const Case& c);
 
 // Transition current from globular to spray transfer for solid steel wire in argon-rich gas,

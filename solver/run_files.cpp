@@ -11,8 +11,8 @@
 namespace heatbead {
 
 namespace {
-
 using Point = std::array<double, 2>;
+}  // namespace
 
 std::vector<post::Curve> curves(const std::vector<post::Polyline>& lines) {
     std::vector<post::Curve> out;
@@ -20,7 +20,6 @@ std::vector<post::Curve> curves(const std::vector<post::Polyline>& lines) {
     return out;
 }
 
-// The bead asked for, side +1: root corner, flange toe, the face back to the web toe.
 post::Outline bead_outline(const mesh::JointGeometry& j) {
     const double yw = j.web_face(1);
     post::Outline o;
@@ -38,13 +37,18 @@ post::Outline bead_outline(const mesh::JointGeometry& j) {
     return o;
 }
 
-}  // namespace
-
 std::string now_utc() {
     const std::time_t t = std::chrono::system_clock::to_time_t(std::chrono::system_clock::now());
     char buf[32];
     std::strftime(buf, sizeof buf, "%Y-%m-%d %H:%M UTC", std::gmtime(&t));
     return buf;
+}
+
+std::vector<post::Outline> plate_outlines(const mesh::JointGeometry& j) {
+    const double half = j.flange_width / 2, y0 = j.web_offset, tw = j.web_thickness / 2;
+    return {{{{-half, -j.flange_thickness}, {half, -j.flange_thickness}, {half, 0}, {-half, 0}}},
+            {{{y0 - tw, j.root_gap}, {y0 + tw, j.root_gap}, {y0 + tw, j.root_gap + j.web_height},
+              {y0 - tw, j.root_gap + j.web_height}}}};
 }
 
 post::ReportInput make_report_input(const Case& c, const Simulation& sim, const RunAnalysis& a,
@@ -65,7 +69,7 @@ post::ReportInput make_report_input(const Case& c, const Simulation& sim, const 
     row("voltage", "%.1f V", p.voltage);
     row("travel speed", "%.2f mm/s", p.travel_speed * 1e3);
     row("heat input", "%.3f kJ/mm", heat_input(p) * 1e-6);
-    row("arc efficiency", "%.2f", net_power(p) / (p.voltage * p.current));
+    row("arc efficiency", "%.2f", net_power(p) / electrical_power(p));
     row("preheat", "%.0f degC", c.temperatures.preheat);
     row("flange thickness", "%.1f mm", j.flange_thickness * 1e3);
     row("web thickness", "%.1f mm", j.web_thickness * 1e3);
@@ -84,11 +88,7 @@ post::ReportInput make_report_input(const Case& c, const Simulation& sim, const 
         r.results.emplace_back(item.group + ": " + item.label, value);
     }
 
-    // Plates of the cross-section, and the bead asked for.
-    const double half = j.flange_width / 2, y0 = j.web_offset, tw = j.web_thickness / 2;
-    r.plates.push_back({{{-half, -j.flange_thickness}, {half, -j.flange_thickness}, {half, 0}, {-half, 0}}});
-    r.plates.push_back({{{y0 - tw, j.root_gap}, {y0 + tw, j.root_gap}, {y0 + tw, j.root_gap + j.web_height},
-                         {y0 - tw, j.root_gap + j.web_height}}});
+    r.plates = plate_outlines(j);
     r.bead = bead_outline(j);
     r.fusion_line = curves(a.section.fusion_line);
     r.haz_ac1_line = curves(a.section.ac1_line);

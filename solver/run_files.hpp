@@ -15,6 +15,12 @@ namespace heatbead {
 // The time now, for "created" lines of reports: "2026-12-01 22:47 UTC".
 std::string now_utc();
 
+// The cross-section's flange and web outlines; the bead asked for on side +1 (root corner, flange
+// toe, the face back to the web toe); isolines as report curves.
+std::vector<post::Outline> plate_outlines(const mesh::JointGeometry& j);
+post::Outline bead_outline(const mesh::JointGeometry& j);
+std::vector<post::Curve> curves(const std::vector<post::Polyline>& lines);
+
 post::ReportInput make_report_input(const Case& c, const Simulation& sim, const RunAnalysis& a,
                                     const post::Summary& summary, const std::vector<std::string>& notes);
 

@@ -136,23 +136,28 @@ TEST_CASE("waveform heat input from the instantaneous power (ISO/TR 18491)", "[p
     CHECK_THROWS(waveform_means(std::vector<double>{0, 0}, std::vector<double>{1, 1}, std::vector<double>{1, 1}));
 }
 
-TEST_CASE("spray's source reaches deeper than short-circuit's for the same bead", "[procedure]") {
-    // The rule of procedure.hpp: b = design throat × (1 + impact × droplet share); short-circuit
-    // transfer has no free flight (impact 0), spray a fine axial stream (impact 1) (common
-    // practice, no source: spray transfer penetrates deeper than short-circuit transfer).
+TEST_CASE("spray's source is deeper and more concentrated than short-circuit's for the same bead", "[procedure]") {
+    // The rule of procedure.hpp, by hand: equal 6 mm legs give a_arc = 6√2/2 = 4.243 mm and
+    // b_arc = 6/√2 = 4.243 mm; 1.2 mm wire gives a_drop = 2.4 mm, b_drop = 8.485 mm. Short-circuit
+    // transfer has no free flight (impact 0): the arc's ellipsoid alone. Spray (impact 1) with
+    // droplet share f: a = √((1 − f)·a_arc² + f·a_drop²), b = √((1 − f)·b_arc² + f·b_drop²)
+    // (common practice, no source: spray transfer penetrates deeper than short-circuit transfer).
     const Case sc = with({"procedure.transfer=\"short_circuit\"", "procedure.wire_diameter=1.2", "procedure.wire_feed=8"});
     const Case spray = with({"procedure.transfer=\"spray\"", "procedure.wire_diameter=1.2", "procedure.wire_feed=8"});
-    const double throat = 6.0 / std::numbers::sqrt2 * 1e-3;  // equal 6 mm legs: l/√2
-    CHECK(sc.source.depth == Approx(throat).epsilon(1e-12));
-    CHECK(spray.source.depth == Approx(throat * (1 + droplet_heat_share(spray))).epsilon(1e-12));
-    CHECK(spray.source.depth > 1.2 * sc.source.depth);
-    CHECK(spray.source.half_width == sc.source.half_width);  // the bead's width sets the width
+    const double arc = 6.0 / std::numbers::sqrt2 * 1e-3;
+    CHECK(sc.source.depth == Approx(arc).epsilon(1e-12));
+    CHECK(sc.source.half_width == Approx(arc).epsilon(1e-12));
+    const double f = droplet_heat_share(spray);
+    CHECK(spray.source.half_width == Approx(std::sqrt((1 - f) * arc * arc + f * 2.4e-3 * 2.4e-3)).epsilon(1e-12));
+    CHECK(spray.source.depth == Approx(arc * std::sqrt(1 + 3 * f)).epsilon(1e-12));
+    CHECK(spray.source.depth > 1.3 * sc.source.depth);
+    CHECK(spray.source.half_width < sc.source.half_width);
     // The droplets' share of the net power: mass rate × enthalpy rise over the net power. By hand:
     // 7850 kg/m³ × π(0.6 mm)² × 8 m/min = 1.184 g/s; steel takes about 1.6–1.9 MJ/kg from 20 °C
     // to 2500 °C (c ≈ 0.45–0.8 kJ/(kg K) with the latent heat 277 kJ/kg), so 1.9–2.2 kW of
     // 0.8 × 20 V × 200 A = 3.2 kW: about 0.6–0.7, capped at 0.7.
-    CHECK(droplet_heat_share(spray) > 0.55);
-    CHECK(droplet_heat_share(spray) <= 0.7);
+    CHECK(f > 0.55);
+    CHECK(f <= 0.7);
 }
 
 TEST_CASE("EN 1993-1-2 carbon steel properties", "[material]") {
