@@ -215,8 +215,13 @@ post::Summary make_summary(const Case& c, const RunResult& result, const RunAnal
     // so when this run's own fusion into the flange is shallow.
     if (c.procedure.transfer == Transfer::short_circuit && x.penetration_flange < shallow_fusion) {
         char buf[200];
-        std::snprintf(buf, sizeof buf, "short-circuit transfer fuses only %.2f mm into the flange: risk of cold lap "
-                                       "(incomplete fusion); confirm by a macro-etch", x.penetration_flange * 1e3);
+        if (x.penetration_flange > 0) {
+            std::snprintf(buf, sizeof buf, "short-circuit transfer fuses only %.2f mm into the flange: risk of cold lap "
+                                           "(incomplete fusion); confirm by a macro-etch", x.penetration_flange * 1e3);
+        } else {
+            std::snprintf(buf, sizeof buf, "short-circuit transfer does not fuse the flange (the fusion line stays %.2f "
+                                           "mm above it): cold lap (incomplete fusion) expected", -x.penetration_flange * 1e3);
+        }
         s.add_note("Fusion", buf);
     }
     if (x.lack_of_fusion_web) s.add_note("Fusion", "LACK OF FUSION into the web predicted");
