@@ -9,6 +9,7 @@
 #include <ctime>
 #include <fcntl.h>
 #include <limits>
+#include <optional>
 #include <set>
 #include <stdexcept>
 #include <string_view>
@@ -381,16 +382,74 @@ void check_record(const RunRecord& record) {
     check_text(record.program_version, "the program version");
 }
 
-}  // namespace
+void write_text_dataset(hid_t parent, const std::string& name, const std::string& text, const std::string& description) {
+    const Handle type = utf8_string_type();
+    const Handle space = scalar_space();
+    const Handle dataset = create_dataset(parent, name, type.get(), space.get());
+    const char* data = text.c_str();
+    check(H5Dwrite(dataset.get(), type.get(), H5S_ALL, H5S_ALL, H5P_DEFAULT, &data), "write dataset " + name);
+    describe(dataset.get(), no_unit, description);
+}
 
-void write_hdf5_results(const std::filesystem::path& path, const RunRecord& record) {
+void write_table_file(const std::string& name, const TableRecord& table) {
+    const Handle access(H5Pcreate(H5P_FILE_ACCESS), H5Pclose, "create file access properties");
+    check(H5Pset_fclose_degree(access.get(), H5F_CLOSE_SEMI), "set file close degree");
+    Handle file(H5Fcreate(name.c_str(), H5F_ACC_TRUNC, H5P_DEFAULT, access.get()), H5Fclose, "create file");
+    {
+        const hid_t root = file.get();
+        set_text_attribute(root, "program", "heatbead");
+        set_text_attribute(root, "version", table.program_version);
+        set_text_attribute(root, "created", utc_now());
+        const Handle group = create_group(root, "table");
+        for (const auto& c : table.numbers) write_doubles(group.get(), c.name, c.values, c.unit, c.description);
+        const Handle type = utf8_string_type();
+        for (const auto& c : table.texts) {
+            std::vector<const char*> values(c.values.size());
+            std::transform(c.values.begin(), c.values.end(), values.begin(), [](const std::string& v) { return v.c_str(); });
+            const hsize_t n = values.size();
+            write_array(group.get(), c.name, type.get(), std::span(&n, 1), values.data(), no_unit, c.description);
+        }
+        for (const auto& d : table.documents) write_text_dataset(root, d.name, d.text, d.description);
+    }
+    file.close("close file");
+}
+
+void check_table(const TableRecord& table) {
+    std::set<std::string> seen;
+    std::optional<std::size_t> rows;
+    const auto check_rows = [&](std::size_t n, const std::string& name) {
+        if (rows && *rows != n)
+            throw std::runtime_error("table column " + name + " has " + std::to_string(n) + " rows, others " +
+                                        std::to_string(*rows));
+        rows = n;
+    };
+    for (const auto& c : table.numbers) {
+        check_name(c.name, "table", seen);
+        check_rows(c.values.size(), c.name);
+    }
+    for (const auto& c : table.texts) {
+        check_name(c.name, "table", seen);
+        check_rows(c.values.size(), c.name);
+        for (const auto& v : c.values) check_text(v, "table column " + c.name);
+    }
+    std::set<std::string> documents;
+    for (const auto& d : table.documents) {
+        check_name(d.name, "/", documents);
+        check_text(d.text, d.name);
+    }
+}
+
+// Checks the record before anything is created, then temporary name, sync, rename: the file is
+// complete or absent.
+template <class Record, class Check, class Writer>
+void write_atomically(const std::filesystem::path& path, const Record& record, Check check_first, Writer writer) {
     // The process id keeps two runs writing into one folder from sharing a temporary name.
     const std::string temporary = path.string() + ".partial." + std::to_string(::getpid());
     const QuietErrors quiet;
     try {
-        check_record(record);
+        check_first(record);
         if (path.has_parent_path()) std::filesystem::create_directories(path.parent_path());
-        write_file(temporary, record);
+        writer(temporary, record);
         sync_file(temporary);
         if (std::rename(temporary.c_str(), path.c_str()) != 0)
             throw std::runtime_error(std::string("rename: ") + std::strerror(errno));
@@ -398,6 +457,16 @@ void write_hdf5_results(const std::filesystem::path& path, const RunRecord& reco
         std::remove(temporary.c_str());
         throw std::runtime_error("cannot write " + path.string() + ": " + e.what());
     }
+}
+
+}  // namespace
+
+void write_hdf5_table(const std::filesystem::path& path, const TableRecord& table) {
+    write_atomically(path, table, check_table, write_table_file);
+}
+
+void write_hdf5_results(const std::filesystem::path& path, const RunRecord& record) {
+    write_atomically(path, record, check_record, write_file);
 }
 
 }  // namespace heatbead::post

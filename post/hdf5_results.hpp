@@ -56,4 +56,29 @@ struct RunRecord {
 // or is used twice in one group, or text containing a NUL byte) or when HDF5 or the file system fails.
 void write_hdf5_results(const std::filesystem::path& path, const RunRecord& record);
 
+// A table of results (a sweep's points), one row per point, column by column:
+//   /table/<name>  numbers (unit and description attributes) or UTF-8 strings (unit "1");
+//   /<document>    whole texts kept with the table (the sweep file, the base case).
+// Written to a temporary name, synced and renamed, like write_hdf5_results.
+struct NumberColumn {
+    std::string name, unit, description;
+    std::vector<double> values;
+};
+struct TextColumn {
+    std::string name, description;
+    std::vector<std::string> values;
+};
+struct TextDocument {
+    std::string name, description, text;
+};
+struct TableRecord {
+    std::vector<NumberColumn> numbers;
+    std::vector<TextColumn> texts;
+    std::vector<TextDocument> documents;
+    std::string program_version;
+};
+// Throws std::runtime_error naming the file, also for columns of unequal length, repeated or empty
+// names, or texts holding NUL characters.
+void write_hdf5_table(const std::filesystem::path& path, const TableRecord& table);
+
 }  // namespace heatbead::post

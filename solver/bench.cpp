@@ -7,9 +7,13 @@
 #include "solver/exit_codes.hpp"
 #include "solver/integrators.hpp"
 #include "solver/run_setup.hpp"
+#include "solver/sweep_command.hpp"
 
 #include <chrono>
 #include <cmath>
+#include <filesystem>
+#include <fstream>
+#include <unistd.h>
 #include <cstdio>
 #include <omp.h>
 #include <sys/resource.h>
@@ -175,6 +179,36 @@ int bench_command(const BenchOptions& o) {
     std::printf("  speed ratio to the converged answer: %.1fx\n", base_full / answer.wall);
     std::printf("Energy balance errors: %.2e, %.2e, %.2e\n", a.energy_error, b.energy_error, e.energy_error);
     return exit_code::ok;
+}
+
+int bench_sweep_command(const std::string& sweep_file) {
+    std::printf("heatbead bench --sweep  %s\n", sweep_file.c_str());
+    double rate[3] = {0, 0, 0};
+    std::size_t points = 0;
+    for (int jobs : {1, 2}) {
+        const auto out = std::filesystem::temp_directory_path() / ("heatbead_bench_sweep_" + std::to_string(::getpid()) +
+                                                                    "_" + std::to_string(jobs));
+        std::filesystem::remove_all(out);
+        SweepOptions o;
+        o.out_dir = out.string();
+        o.quiet = true;
+        o.jobs = jobs;
+        o.threads = 1;
+        const auto start = std::chrono::steady_clock::now();
+        const int code = sweep_command(sweep_file, o);
+        const double seconds = std::chrono::duration<double>(std::chrono::steady_clock::now() - start).count();
+        std::ifstream table(out / "table.csv");
+        std::string line;
+        points = 0;
+        for (std::getline(table, line); std::getline(table, line);) ++points;
+        std::filesystem::remove_all(out);
+        if (code != 0) return code;
+        rate[jobs] = static_cast<double>(points) / seconds * 3600;
+        std::printf("  %d worker process%s: %zu points in %.1f s = %.0f cases per hour\n", jobs, jobs == 1 ? "" : "es",
+                    points, seconds, rate[jobs]);
+    }
+    std::printf("Parallel efficiency from 1 to 2 processes: %.0f %% (aim 85 %%)\n", 100 * rate[2] / (2 * rate[1]));
+    return 0;
 }
 
 }  // namespace heatbead

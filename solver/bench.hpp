@@ -12,4 +12,9 @@ struct BenchOptions {
 
 int bench_command(const BenchOptions& options);
 
+// Sweep throughput: the sweep run once with 1 worker process and once with 2 (1 thread each, fresh
+// output folders under the system's temporary folder), printing cases per hour for each and the
+// parallel efficiency (rate with 2 / (2 × rate with 1)), measured in the same invocation.
+int bench_sweep_command(const std::string& sweep_file);
+
 }  // namespace heatbead

@@ -30,7 +30,7 @@ constexpr std::array<std::string_view, 5> position_names{"flat", "horizontal", "
                                                          "overhead"};
 constexpr std::array<std::string_view, 3> face_names{"flat", "convex", "concave"};
 constexpr std::array<std::string_view, 2> source_shapes{"from_procedure", "given"};
-constexpr std::array<std::string_view, 4> output_files{"hdf5", "vtk", "summary", "report"};
+constexpr std::array<std::string_view, 5> output_files{"hdf5", "vtk", "summary", "report", "contours"};
 
 template <class Enum, std::size_t N>
 Enum enum_of(const std::array<std::string_view, N>& names, const std::string& word, std::size_t offset = 0) {

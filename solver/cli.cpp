@@ -8,11 +8,13 @@
 #include "solver/exit_codes.hpp"
 #include "solver/preheat_command.hpp"
 #include "solver/run_command.hpp"
+#include "solver/sweep_command.hpp"
 
 #include <CLI/CLI.hpp>
 
 #include <filesystem>
 #include <iostream>
+#include <thread>
 
 namespace heatbead {
 
@@ -118,10 +120,29 @@ int run_command_line(int argc, char** argv) {
     compare->add_option("--threads", compare_extra.threads, "OpenMP threads per run (default: cores / jobs)")
         ->check(CLI::Range(1, 1024));
 
+    auto* sweep = app.add_subcommand("sweep", "run every point of a sweep file; resumable; local workers, MPI or shards");
+    std::string sweep_file, shard_text;
+    SweepOptions sweep_extra;
+    sweep->add_option("sweep", sweep_file, "sweep file (TOML)");
+    sweep->add_option("--out", sweep_extra.out_dir, "folder for the table, report and points (default results/<sweep>)");
+    sweep->add_option("--jobs", sweep_extra.jobs, "worker processes (default 1)")->check(CLI::Range(1, 256));
+    sweep->add_option("--threads", sweep_extra.threads, "OpenMP threads per point (default: cores / jobs)")
+        ->check(CLI::Range(1, 1024));
+    sweep->add_option("--shard", shard_text, "only points i, i+n, i+2n, ... (i/n with 0 <= i < n), for job arrays");
+    sweep->add_flag("--quiet", sweep_extra.quiet, "print nothing but errors");
+    auto* merge = sweep->add_subcommand("merge", "join the folders of a sharded sweep into one table");
+    std::string merge_out;
+    std::vector<std::string> merge_dirs;
+    merge->add_option("out", merge_out, "folder for the joined table")->required();
+    merge->add_option("shards", merge_dirs, "the shards' --out folders")->required();
+    sweep->require_subcommand(0, 1);
+
     auto* bench = app.add_subcommand("bench", "measure speed on the reference case (ratios from one run)");
     BenchOptions bench_options;
     bench->add_option("case", bench_options.case_path, "reference case file")->capture_default_str();
     bench->add_flag("--quick", bench_options.quick, "small grids: checks the benchmark runs, figures not meaningful");
+    std::string bench_sweep;
+    bench->add_option("--sweep", bench_sweep, "instead: cases per hour of this sweep with 1 and 2 worker processes");
 
     try {
         app.parse(argc, argv);
@@ -131,7 +152,7 @@ int run_command_line(int argc, char** argv) {
     }
     try {
         if (check->parsed()) return check_command(options, resolved);
-        if (bench->parsed()) return bench_command(bench_options);
+        if (bench->parsed()) return bench_sweep.empty() ? bench_command(bench_options) : bench_sweep_command(bench_sweep);
         if (preheat->parsed()) {
             preheat_extra.out_dir = preheat_options.out_dir;
             preheat_extra.quiet = preheat_options.quiet;
@@ -140,6 +161,26 @@ int run_command_line(int argc, char** argv) {
         if (compare->parsed()) {
             compare_extra.preheat = !no_preheat;
             return compare_command(load_all(compare_cases, compare_sets), compare_extra);
+        }
+        if (merge->parsed()) return sweep_merge_command(merge_out, merge_dirs, sweep_extra.quiet);
+        if (sweep->parsed()) {
+            if (sweep_file.empty()) {
+                std::cerr << "heatbead sweep: give a sweep file, or `merge OUT DIR...`\n";
+                return exit_code::bad_input;
+            }
+            if (!shard_text.empty()) {
+                try {
+                    sweep_extra.shard = parse_shard(shard_text);
+                } catch (const std::invalid_argument& e) {
+                    std::cerr << "heatbead: " << e.what() << "\n";
+                    return exit_code::bad_input;
+                }
+            }
+            if (sweep_extra.threads == 0) {
+                const int cores = static_cast<int>(std::max(1u, std::thread::hardware_concurrency()));
+                sweep_extra.threads = std::max(1, cores / sweep_extra.jobs);
+            }
+            return sweep_command(sweep_file, sweep_extra);
         }
         if (run->parsed()) {
             run_extra.out_dir = run_options.out_dir;

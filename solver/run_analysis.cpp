@@ -143,6 +143,21 @@ std::string along_weld_csv(const RunAnalysis& a) {
     return out;
 }
 
+std::string section_lines_csv(const RunAnalysis& a) {
+    std::string out = "line,part,y [mm],z [mm]\n";
+    const auto& x = a.section;
+    for (const auto& [name, lines] : {std::pair{"fusion", &x.fusion_line}, std::pair{"ac3", &x.ac3_line},
+                                      std::pair{"ac1", &x.ac1_line}}) {
+        for (std::size_t part = 0; part < lines->size(); ++part) {
+            for (const auto& [y, z] : (*lines)[part].points) {
+                out += std::string(name) + "," + std::to_string(part) + "," + csv_number(y * 1e3, 4) + "," +
+                       csv_number(z * 1e3, 4) + "\n";
+            }
+        }
+    }
+    return out;
+}
+
 std::string probes_csv(const RunAnalysis& a) {
     std::string out = "probe,x [mm],y [mm],z [mm],peak [degC],t8/5 [s],t8/3 [s],cooling rate at 540 degC [K/s],"
                       "cooling rate at 700 degC [K/s],time above Ac1 [s],time to 100 degC [s],HAZ hardness [HV]\n";

@@ -56,6 +56,9 @@ RunAnalysis analyse_run(const Case& c, const Simulation& sim, const post::Sectio
 // The cross-section measured every few mm along the weld (start and stop effects), as CSV with
 // units in the header.
 std::string along_weld_csv(const RunAnalysis& analysis);
+// The station's fusion, Ac3 and Ac1 lines as CSV rows "line, part, y [mm], z [mm]" (part numbers
+// the separate polylines of one line).
+std::string section_lines_csv(const RunAnalysis& analysis);
 // Each probe's position and cooling figures, as CSV with units in the header.
 std::string probes_csv(const RunAnalysis& analysis);
 

@@ -137,6 +137,10 @@ int run_command(const LoadedCase& loaded, const RunOptions& options) {
         written.push_back((out / "summary.json").string() + ", summary.csv, probes.csv, along_weld.csv");
     }
 
+    if (wants("contours")) {
+        post::write_file_atomically(out / "section_lines.csv", section_lines_csv(analysis));
+        written.push_back((out / "section_lines.csv").string());
+    }
     if (series) {
         series->finish();
         std::filesystem::remove_all(series_dir);

@@ -1,6 +1,6 @@
-// What the HTML page tests share: counting occurrences, cutting out a part of the page, checking
-// that a page needs nothing from outside, reading a written file back, and where the hidden
-// "[.sample]" tests write a page for the browser check (tests/render_report.sh).
+// What the HTML page tests share: counting occurrences, cutting out a part of the page, the strokes
+// of its lines, checking that a page needs nothing from outside, reading a written file back, and
+// where the hidden "[.sample]" tests write a page for the browser check (tests/render_report.sh).
 #pragma once
 
 #include <catch2/catch.hpp>
@@ -10,6 +10,7 @@
 #include <fstream>
 #include <sstream>
 #include <string>
+#include <vector>
 
 namespace heatbead::testing {
 
@@ -28,6 +29,16 @@ inline std::string part(const std::string& html, const std::string& opening, con
 
 inline std::string figure_of(const std::string& html, const std::string& id) {
     return part(html, "<figure id=\"" + id + "\"", "</figure>");
+}
+
+// The stroke attributes of every polyline in `svg`: colour, width and dash, as one string each.
+inline std::vector<std::string> polyline_strokes(const std::string& svg) {
+    std::vector<std::string> strokes;
+    for (auto at = svg.find("<polyline"); at != std::string::npos; at = svg.find("<polyline", at + 1)) {
+        const auto from = svg.find(" stroke=", at);
+        strokes.push_back(svg.substr(from, svg.find(" points=", from) - from));
+    }
+    return strokes;
 }
 
 // A complete page that a browser shows from the file alone: nothing to fetch, no script, no imported

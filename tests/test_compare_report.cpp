@@ -23,6 +23,7 @@ using heatbead::testing::check_self_contained;
 using heatbead::testing::count;
 using heatbead::testing::figure_of;
 using heatbead::testing::part;
+using heatbead::testing::polyline_strokes;
 using heatbead::testing::read_file;
 using heatbead::testing::sample_path;
 
@@ -75,16 +76,6 @@ CompareReportInput sample_input() {
                       "cool reaches t8/5 4.6 s sooner at its probe"};
     in.warnings = {"cool: the root is not fused", hot_name + ": travel speed is near the lower end"};
     return in;
-}
-
-// The stroke attributes of every polyline in `svg`: colour, width and dash, as one string each.
-std::vector<std::string> polyline_strokes(const std::string& svg) {
-    std::vector<std::string> strokes;
-    for (auto at = svg.find("<polyline"); at != std::string::npos; at = svg.find("<polyline", at + 1)) {
-        const auto from = svg.find(" stroke=", at);
-        strokes.push_back(svg.substr(from, svg.find(" points=", from) - from));
-    }
-    return strokes;
 }
 
 }  // namespace
