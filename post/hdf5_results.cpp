@@ -292,17 +292,23 @@ std::string utc_now() {
     return text;
 }
 
-void write_file(const std::string& name, const RunRecord& record) {
+// A new file whose root says which program and version wrote it, and when.
+Handle create_file(const std::string& name, const std::string& program_version) {
     const Handle access(H5Pcreate(H5P_FILE_ACCESS), H5Pclose, "create file access properties");
     // Closing the file fails if an object in it is still open, instead of leaving the file open unseen.
     check(H5Pset_fclose_degree(access.get(), H5F_CLOSE_SEMI), "set file close degree");
     Handle file(H5Fcreate(name.c_str(), H5F_ACC_TRUNC, H5P_DEFAULT, access.get()), H5Fclose, "create file");
+    set_text_attribute(file.get(), "program", "heatbead");
+    set_text_attribute(file.get(), "version", program_version);
+    set_text_attribute(file.get(), "created", utc_now());
+    return file;
+}
+
+void write_file(const std::string& name, const RunRecord& record) {
+    Handle file = create_file(name, record.program_version);
     {
         const hid_t root = file.get();
-        set_text_attribute(root, "program", "heatbead");
-        set_text_attribute(root, "version", record.program_version);
         set_text_attribute(root, "stop_reason", record.stop_reason);
-        set_text_attribute(root, "created", utc_now());
         set_number_attribute(root, "layout_version", H5T_NATIVE_INT, &layout_version, 1);
 
         write_grid(root, *record.grid);
@@ -392,14 +398,9 @@ void write_text_dataset(hid_t parent, const std::string& name, const std::string
 }
 
 void write_table_file(const std::string& name, const TableRecord& table) {
-    const Handle access(H5Pcreate(H5P_FILE_ACCESS), H5Pclose, "create file access properties");
-    check(H5Pset_fclose_degree(access.get(), H5F_CLOSE_SEMI), "set file close degree");
-    Handle file(H5Fcreate(name.c_str(), H5F_ACC_TRUNC, H5P_DEFAULT, access.get()), H5Fclose, "create file");
+    Handle file = create_file(name, table.program_version);
     {
         const hid_t root = file.get();
-        set_text_attribute(root, "program", "heatbead");
-        set_text_attribute(root, "version", table.program_version);
-        set_text_attribute(root, "created", utc_now());
         const Handle group = create_group(root, "table");
         for (const auto& c : table.numbers) write_doubles(group.get(), c.name, c.values, c.unit, c.description);
         const Handle type = utf8_string_type();
