@@ -6,6 +6,7 @@
 #include "solver/check.hpp"
 #include "solver/compare_command.hpp"
 #include "solver/exit_codes.hpp"
+#include "solver/fit_command.hpp"
 #include "solver/preheat_command.hpp"
 #include "solver/run_command.hpp"
 #include "solver/sweep_command.hpp"
@@ -137,6 +138,14 @@ int run_command_line(int argc, char** argv) {
     merge->add_option("shards", merge_dirs, "the shards' --out folders")->required();
     sweep->require_subcommand(0, 1);
 
+    auto* fit = app.add_subcommand("fit", "calibrate the heat source to a measured macro-section or thermocouple trace");
+    CommonOptions fit_options;
+    FitOptions fit_extra;
+    add_case_options(*fit, fit_options);
+    fit->add_option("--measured", fit_extra.measured, "the measurement file (TOML)")->required();
+    fit->add_option("--jobs", fit_extra.jobs, "runs at a time (default: one per core)")->check(CLI::Range(1, 256));
+    fit->add_option("--threads", fit_extra.threads, "OpenMP threads per run (default: cores / jobs)")->check(CLI::Range(1, 1024));
+
     auto* bench = app.add_subcommand("bench", "measure speed on the reference case (ratios from one run)");
     BenchOptions bench_options;
     bench->add_option("case", bench_options.case_path, "reference case file")->capture_default_str();
@@ -161,6 +170,11 @@ int run_command_line(int argc, char** argv) {
         if (compare->parsed()) {
             compare_extra.preheat = !no_preheat;
             return compare_command(load_all(compare_cases, compare_sets), compare_extra);
+        }
+        if (fit->parsed()) {
+            fit_extra.out_dir = fit_options.out_dir;
+            fit_extra.quiet = fit_options.quiet;
+            return fit_command(load(fit_options), fit_extra);
         }
         if (merge->parsed()) return sweep_merge_command(merge_out, merge_dirs, sweep_extra.quiet);
         if (sweep->parsed()) {

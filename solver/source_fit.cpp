@@ -1,0 +1,267 @@
+#include "solver/source_fit.hpp"
+
+#include "solver/procedure.hpp"
+#include "solver/run_analysis.hpp"
+#include "solver/run_command.hpp"
+#include "solver/run_setup.hpp"
+
+#include <Eigen/Dense>
+#include <omp.h>
+
+#include <algorithm>
+#include <atomic>
+#include <cmath>
+#include <cstdio>
+#include <exception>
+#include <stdexcept>
+#include <thread>
+
+namespace heatbead {
+
+namespace {
+
+std::string fmt(const char* format, double v) {
+    char buf[64];
+    std::snprintf(buf, sizeof buf, format, v);
+    return buf;
+}
+
+// The predicted section quantity by its summary key.
+double section_value(const post::CrossSection& x, const std::string& key) {
+    if (key == "penetration_flange") return x.penetration_flange;
+    if (key == "penetration_web") return x.penetration_web;
+    if (key == "fused_leg_flange") return x.fused_leg_flange;
+    if (key == "fused_leg_web") return x.fused_leg_web;
+    if (key == "haz_width_flange") return x.haz_width_flange;
+    if (key == "haz_width_web") return x.haz_width_web;
+    if (key == "fused_area") return x.fused_area;
+    throw std::invalid_argument("no section quantity " + key);
+}
+
+double interpolate(const std::vector<double>& t, const std::vector<double>& v, double at) {
+    if (t.empty()) return std::nan("");
+    if (at <= t.front()) return v.front();
+    if (at >= t.back()) return v.back();
+    const auto j = static_cast<std::size_t>(std::upper_bound(t.begin(), t.end(), at) - t.begin());
+    const double w = (at - t[j - 1]) / (t[j] - t[j - 1]);
+    return v[j - 1] + w * (v[j] - v[j - 1]);
+}
+
+// Which thermocouple samples are compared: up to 40, evenly spread.
+std::vector<std::size_t> compared_samples(const ThermocoupleTrace& t) {
+    std::vector<std::size_t> out;
+    const std::size_t n = t.time.size(), take = std::min<std::size_t>(n, 40);
+    for (std::size_t i = 0; i < take; ++i) out.push_back(take == 1 ? 0 : i * (n - 1) / (take - 1));
+    return out;
+}
+
+struct Problem {
+    const Case& base;
+    const Measurements& m;
+    const mesh::Grid& grid;
+    const Material& material;
+    std::vector<double> start, low, high;  // per unknown
+    std::vector<double> measured, uncertainty;
+    std::vector<std::string> labels;
+    int threads = 1;
+    std::atomic<int> runs{0};
+
+    Case case_at(const std::vector<double>& theta) const {
+        Case c = base;
+        for (std::size_t j = 0; j < theta.size(); ++j) set_unknown(c, m.unknowns[j], start[j] * std::exp(theta[j]));
+        for (const auto& tc : m.thermocouples) c.output.probes.push_back(tc.position);
+        return c;
+    }
+
+    Prediction predict(const std::vector<double>& theta) {
+        ++runs;
+        omp_set_num_threads(threads);
+        const Case c = case_at(theta);
+        PreparedRun run = prepare_run(c, grid, material);
+        const RunResult result = run.sim->run(interrupt_flag());
+        if (!result.completed || interrupt_flag().load()) throw std::runtime_error("the fit was interrupted");
+        const RunAnalysis a = analyse_run(c, *run.sim, *run.station);
+        Prediction p;
+        p.fusion_line = a.section.fusion_line, p.haz_line = a.section.ac1_line;
+        for (const auto& s : m.section) p.values.push_back(section_value(a.section, s.key));
+        const auto& probes = run.sim->probes();
+        for (std::size_t k = 0; k < m.thermocouples.size(); ++k) {
+            const auto& probe = probes[probes.size() - m.thermocouples.size() + k];
+            for (std::size_t i : compared_samples(m.thermocouples[k])) {
+                p.values.push_back(interpolate(probe.time, probe.temperature, m.thermocouples[k].time[i]));
+            }
+        }
+        for (std::size_t i = 0; i < p.values.size(); ++i) {
+            p.residuals.push_back((p.values[i] - measured[i]) / uncertainty[i]);
+            p.misfit += p.residuals.back() * p.residuals.back();
+        }
+        return p;
+    }
+
+    // Predictions at several points, `jobs` runs at a time.
+    std::vector<Prediction> predict_all(const std::vector<std::vector<double>>& thetas, int jobs) {
+        std::vector<Prediction> out(thetas.size());
+        std::vector<std::exception_ptr> errors(thetas.size());
+        for (std::size_t first = 0; first < thetas.size(); first += static_cast<std::size_t>(jobs)) {
+            std::vector<std::thread> workers;
+            for (std::size_t i = first; i < std::min(thetas.size(), first + static_cast<std::size_t>(jobs)); ++i) {
+                workers.emplace_back([&, i] {
+                    try {
+                        out[i] = predict(thetas[i]);
+                    } catch (...) {
+                        errors[i] = std::current_exception();
+                    }
+                });
+            }
+            for (auto& w : workers) w.join();
+        }
+        for (const auto& e : errors) {
+            if (e) std::rethrow_exception(e);
+        }
+        return out;
+    }
+
+    std::vector<double> clamp(std::vector<double> theta) const {
+        for (std::size_t j = 0; j < theta.size(); ++j) {
+            theta[j] = std::clamp(theta[j], std::log(low[j] / start[j]), std::log(high[j] / start[j]));
+        }
+        return theta;
+    }
+};
+
+}  // namespace
+
+double unknown_value(const Case& c, const std::string& name) {
+    if (name == "arc_efficiency") return c.procedure.arc_efficiency;
+    if (name == "half_width") return c.source.half_width;
+    if (name == "depth") return c.source.depth;
+    if (name == "front_length") return c.source.front_length;
+    if (name == "rear_length") return c.source.rear_length;
+    throw std::invalid_argument("unknown " + name);
+}
+
+void set_unknown(Case& c, const std::string& name, double value) {
+    if (name == "arc_efficiency") {
+        c.procedure.arc_efficiency = value;
+        c.procedure.net_power.reset();
+        c.procedure.arc_efficiency_source = "fitted to measurements";
+        return;
+    }
+    c.source.from_procedure = false;
+    c.source.rule = "fitted to measurements";
+    if (name == "half_width") c.source.half_width = value;
+    else if (name == "depth") c.source.depth = value;
+    else if (name == "front_length") c.source.front_length = value;
+    else if (name == "rear_length") c.source.rear_length = value;
+    else throw std::invalid_argument("unknown " + name);
+}
+
+FitResult fit_source(const Case& c, const Measurements& m, int jobs, int threads,
+                     const std::function<void(const std::string&)>& progress) {
+    const mesh::Grid grid = mesh::build_grid(c.joint, c.grid);
+    const Material material = make_material(c.base);
+    Problem pb{c, m, grid, material, {}, {}, {}, {}, {}, {}, std::max(threads, 1), {}};
+    for (const auto& name : m.unknowns) {
+        const double p0 = unknown_value(c, name);
+        pb.start.push_back(p0);
+        pb.low.push_back(name == "arc_efficiency" ? 0.3 : p0 / 4);
+        pb.high.push_back(name == "arc_efficiency" ? 1.0 : p0 * 4);
+    }
+    for (const auto& s : m.section) {
+        pb.labels.push_back(s.key), pb.measured.push_back(s.value), pb.uncertainty.push_back(s.uncertainty);
+    }
+    for (const auto& tc : m.thermocouples) {
+        for (std::size_t i : compared_samples(tc)) {
+            pb.labels.push_back("thermocouple at " + fmt("%.1f s", tc.time[i]));
+            pb.measured.push_back(tc.temperature[i]), pb.uncertainty.push_back(tc.uncertainty);
+        }
+    }
+    const std::size_t n = m.unknowns.size(), rows = pb.measured.size();
+    FitResult out;
+    out.labels = pb.labels, out.measured = pb.measured, out.uncertainty = pb.uncertainty;
+    std::vector<double> theta(n, 0.0);
+    Prediction current = pb.predict(theta);
+    out.before = current;
+    double lambda = 1e-2;
+    const double h = 0.05;  // forward-difference step in ln p: 5 %
+    Eigen::MatrixXd J(rows, n);
+    const auto jacobian = [&] {
+        std::vector<std::vector<double>> shifted;
+        for (std::size_t j = 0; j < n; ++j) {
+            auto t = theta;
+            const bool at_top = theta[j] + h > std::log(pb.high[j] / pb.start[j]);
+            t[j] += at_top ? -h : h;  // step back from the upper bound
+            shifted.push_back(t);
+        }
+        const auto preds = pb.predict_all(shifted, jobs);
+        for (std::size_t j = 0; j < n; ++j) {
+            const double step = shifted[j][j] - theta[j];
+            for (std::size_t i = 0; i < rows; ++i) J(Eigen::Index(i), Eigen::Index(j)) = (preds[j].residuals[i] - current.residuals[i]) / step;
+        }
+    };
+    for (out.iterations = 0; out.iterations < m.iterations; ++out.iterations) {
+        jacobian();
+        const Eigen::VectorXd r = Eigen::Map<const Eigen::VectorXd>(current.residuals.data(), Eigen::Index(rows));
+        const Eigen::MatrixXd A = J.transpose() * J;
+        const Eigen::VectorXd g = J.transpose() * r;
+        bool accepted = false;
+        for (int attempt = 0; attempt < 6 && !accepted; ++attempt) {
+            Eigen::MatrixXd damped = A;
+            for (Eigen::Index j = 0; j < Eigen::Index(n); ++j) damped(j, j) += lambda * std::max(A(j, j), 1e-12);
+            const Eigen::VectorXd delta = -damped.ldlt().solve(g);
+            std::vector<double> trial(n);
+            for (std::size_t j = 0; j < n; ++j) trial[j] = theta[j] + delta(Eigen::Index(j));
+            trial = pb.clamp(trial);
+            const Prediction p = pb.predict(trial);
+            if (p.misfit < current.misfit) {
+                const double gain = (current.misfit - p.misfit) / std::max(current.misfit, 1e-300);
+                theta = trial, current = p, lambda = std::max(lambda / 3, 1e-6), accepted = true;
+                if (progress) progress("iteration " + std::to_string(out.iterations + 1) + ": misfit " + fmt("%.4g", p.misfit));
+                if (gain < 1e-3) out.iterations = m.iterations;  // converged: no real gain left
+            } else {
+                lambda *= 4;
+            }
+        }
+        if (!accepted) break;  // no step improves the misfit: a minimum within the bounds
+    }
+    out.after = current;
+    out.runs = pb.runs.load();
+    // Uncertainty of the fitted unknowns from the Jacobian at the solution.
+    jacobian();
+    const Eigen::MatrixXd A = J.transpose() * J;
+    const double dof = rows > n ? double(rows - n) : 0;
+    const double s2 = dof > 0 ? current.misfit / dof : 1.0;
+    const Eigen::MatrixXd cov = s2 * A.completeOrthogonalDecomposition().pseudoInverse();
+    double largest = 0;
+    for (std::size_t j = 0; j < n; ++j) largest = std::max(largest, J.col(Eigen::Index(j)).norm());
+    for (std::size_t j = 0; j < n; ++j) {
+        const double p = pb.start[j] * std::exp(theta[j]);
+        const double sigma = std::sqrt(std::max(cov(Eigen::Index(j), Eigen::Index(j)), 0.0));
+        out.unknowns.push_back({m.unknowns[j], pb.start[j], p, p * std::exp(-1.96 * sigma), p * std::exp(1.96 * sigma)});
+        const double norm = J.col(Eigen::Index(j)).norm();
+        if (norm < 1e-3 * largest || norm < 1e-6) {
+            out.warnings.push_back(m.unknowns[j] + " is not identifiable from these measurements: they do not change "
+                                                   "when it does (fix it, or add a measurement it moves)");
+        }
+        if (std::abs(theta[j] - std::log(pb.low[j] / pb.start[j])) < 1e-9 || std::abs(theta[j] - std::log(pb.high[j] / pb.start[j])) < 1e-9) {
+            out.warnings.push_back(m.unknowns[j] + " ended on its bound: the data pull it further than allowed");
+        }
+        for (std::size_t k = j + 1; k < n; ++k) {
+            const double nk = J.col(Eigen::Index(k)).norm();
+            if (norm > 0 && nk > 0 && std::abs(J.col(Eigen::Index(j)).dot(J.col(Eigen::Index(k)))) / (norm * nk) > 0.995) {
+                out.warnings.push_back(m.unknowns[j] + " and " + m.unknowns[k] +
+                                       " move the measurements alike: not separately identifiable from these data");
+            }
+        }
+        if (m.unknowns[j] == "front_length" && m.thermocouples.empty()) {
+            out.warnings.push_back("front_length is barely seen by a cross-section (common practice, no source): a "
+                                   "thermocouple trace or a longitudinal section pins it down");
+        }
+    }
+    if (rows <= n) out.warnings.push_back("no more measurements than unknowns: the intervals are not meaningful");
+    out.fitted = pb.case_at(theta);
+    out.fitted.output.probes = c.output.probes;
+    return out;
+}
+
+}  // namespace heatbead
