@@ -3,6 +3,7 @@
 #include "post/atomic_file.hpp"
 #include "post/compare_report.hpp"
 #include "solver/exit_codes.hpp"
+#include "solver/parallel_tasks.hpp"
 #include "solver/preheat_search.hpp"
 #include "solver/procedure.hpp"
 #include "solver/run_analysis.hpp"
@@ -17,7 +18,6 @@
 #include <cmath>
 #include <csignal>
 #include <cstdio>
-#include <exception>
 #include <filesystem>
 #include <map>
 #include <memory>
@@ -359,36 +359,25 @@ int compare_command(const std::vector<LoadedCase>& cases, const CompareOptions& 
         std::fflush(stdout);
     }
     std::vector<Outcome> outcomes(cases.size());
-    std::vector<std::exception_ptr> errors(cases.size());
     for (std::size_t first = 0; first < cases.size(); first += static_cast<std::size_t>(jobs)) {
-        std::vector<std::thread> workers;
-        for (std::size_t i = first; i < std::min(cases.size(), first + static_cast<std::size_t>(jobs)); ++i) {
-            workers.emplace_back([&, i] {
-                try {
-                    omp_set_num_threads(threads);
-                    const Case& c = cases[i].value;
-                    const auto start = std::chrono::steady_clock::now();
-                    PreparedRun run = prepare_run(c, *grids.at(grid_key(c)), *materials[i]);
-                    Outcome& o = outcomes[i];
-                    o.name = names[i];
-                    o.c = &c;
-                    o.result = run.sim->run(interrupt_flag());
-                    if (!o.result.completed || interrupt_flag().load()) return;
-                    o.analysis = analyse_run(c, *run.sim, *run.station);
-                    o.wall = std::chrono::duration<double>(std::chrono::steady_clock::now() - start).count();
-                    o.summary = make_summary(c, o.result, o.analysis, o.wall);
-                } catch (...) {
-                    errors[i] = std::current_exception();
-                }
-            });
-        }
-        for (auto& w : workers) w.join();
-        for (const auto& e : errors) {
-            if (e) std::rethrow_exception(e);
-        }
+        const std::size_t last = std::min(cases.size(), first + static_cast<std::size_t>(jobs));
+        run_side_by_side(first, last, [&](std::size_t i) {
+            omp_set_num_threads(threads);
+            const Case& c = cases[i].value;
+            const auto start = std::chrono::steady_clock::now();
+            PreparedRun run = prepare_run(c, *grids.at(grid_key(c)), *materials[i]);
+            Outcome& o = outcomes[i];
+            o.name = names[i];
+            o.c = &c;
+            o.result = run.sim->run(interrupt_flag());
+            if (!o.result.completed || interrupt_flag().load()) return;
+            o.analysis = analyse_run(c, *run.sim, *run.station);
+            o.wall = std::chrono::duration<double>(std::chrono::steady_clock::now() - start).count();
+            o.summary = make_summary(c, o.result, o.analysis, o.wall);
+        });
         if (interrupt_flag().load()) break;
         if (!options.quiet) {
-            for (std::size_t i = first; i < std::min(cases.size(), first + static_cast<std::size_t>(jobs)); ++i) {
+            for (std::size_t i = first; i < last; ++i) {
                 std::printf("  ran %-28s %.1f s\n", names[i].c_str(), outcomes[i].wall);
             }
             std::fflush(stdout);

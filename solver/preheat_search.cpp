@@ -1,5 +1,6 @@
 #include "solver/preheat_search.hpp"
 
+#include "solver/parallel_tasks.hpp"
 #include "solver/procedure.hpp"
 #include "solver/run_analysis.hpp"
 #include "solver/run_command.hpp"
@@ -10,10 +11,8 @@
 #include <chrono>
 #include <cmath>
 #include <cstdio>
-#include <exception>
 #include <limits>
 #include <omp.h>
-#include <thread>
 
 namespace heatbead {
 
@@ -134,21 +133,11 @@ PreheatAnswer find_preheat(const Case& c, int jobs, int threads_per_trial,
     const Ladder ladder{spec.lowest, spec.highest, spec.resolution};
     const auto test = [&](const std::vector<double>& candidates) {
         std::vector<PreheatTrial> done(candidates.size());
-        std::vector<std::exception_ptr> errors(candidates.size());
-        std::vector<std::thread> workers;
-        for (std::size_t i = 0; i < candidates.size(); ++i) {
-            workers.emplace_back([&, i] {
-                try {
-                    done[i] = run_preheat_trial(c, grid, material, candidates[i], threads_per_trial);
-                } catch (...) {
-                    errors[i] = std::current_exception();
-                }
-            });
-        }
-        for (auto& w : workers) w.join();
+        run_side_by_side(0, candidates.size(), [&](std::size_t i) {
+            done[i] = run_preheat_trial(c, grid, material, candidates[i], threads_per_trial);
+        });
         std::vector<bool> passed;
         for (std::size_t i = 0; i < candidates.size(); ++i) {
-            if (errors[i]) std::rethrow_exception(errors[i]);
             answer.trials.push_back(done[i]);
             passed.push_back(done[i].passes);
         }

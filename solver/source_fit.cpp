@@ -1,5 +1,6 @@
 #include "solver/source_fit.hpp"
 
+#include "solver/parallel_tasks.hpp"
 #include "solver/procedure.hpp"
 #include "solver/run_analysis.hpp"
 #include "solver/run_command.hpp"
@@ -12,9 +13,7 @@
 #include <atomic>
 #include <cmath>
 #include <cstdio>
-#include <exception>
 #include <stdexcept>
-#include <thread>
 
 namespace heatbead {
 
@@ -101,22 +100,9 @@ struct Problem {
     // Predictions at several points, `jobs` runs at a time.
     std::vector<Prediction> predict_all(const std::vector<std::vector<double>>& thetas, int jobs) {
         std::vector<Prediction> out(thetas.size());
-        std::vector<std::exception_ptr> errors(thetas.size());
         for (std::size_t first = 0; first < thetas.size(); first += static_cast<std::size_t>(jobs)) {
-            std::vector<std::thread> workers;
-            for (std::size_t i = first; i < std::min(thetas.size(), first + static_cast<std::size_t>(jobs)); ++i) {
-                workers.emplace_back([&, i] {
-                    try {
-                        out[i] = predict(thetas[i]);
-                    } catch (...) {
-                        errors[i] = std::current_exception();
-                    }
-                });
-            }
-            for (auto& w : workers) w.join();
-        }
-        for (const auto& e : errors) {
-            if (e) std::rethrow_exception(e);
+            run_side_by_side(first, std::min(thetas.size(), first + static_cast<std::size_t>(jobs)),
+                             [&](std::size_t i) { out[i] = predict(thetas[i]); });
         }
         return out;
     }
