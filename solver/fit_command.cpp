@@ -78,7 +78,7 @@ nlohmann::json to_json(const FitResult& f) {
 }
 
 // The predicted lines before and after the fit on one drawing, with the measurements as the table.
-post::CompareReportInput report_input(const Case& c, const FitResult& f) {
+post::CompareReportInput report_input(const Case& c, const Measurements& m, const FitResult& f) {
     post::CompareReportInput r;
     r.title = "Heat source fitted: " + std::filesystem::path(c.file).stem().string();
     r.created = now_utc();
@@ -105,6 +105,15 @@ post::CompareReportInput report_input(const Case& c, const FitResult& f) {
         std::snprintf(before, sizeof before, "%.3g%s", f.before.values[i] * scale, unit);
         std::snprintf(after, sizeof after, "%.3g%s", f.after.values[i] * scale, unit);
         r.rows.push_back({f.labels[i] + " (measured " + measured + ")", {before, after}});
+    }
+    if (!m.boundary.empty()) {
+        // The digitised boundary, drawn as a line of its own beside the predicted ones.
+        post::ComparedProcedure measured;
+        measured.name = "measured boundary";
+        measured.case_file = m.file;
+        measured.fusion_line.push_back({m.boundary});
+        r.procedures.push_back(std::move(measured));
+        for (auto& row : r.rows) row.second.push_back("");  // the table's columns are start and fitted
     }
     char misfit[96];
     std::snprintf(misfit, sizeof misfit, "The misfit fell from %.4g to %.4g in %d runs.", f.before.misfit, f.after.misfit, f.runs);
@@ -138,7 +147,7 @@ int fit_command(const LoadedCase& loaded, const FitOptions& o) {
     const std::string text = fitted_case_toml(loaded, fit);
     post::write_file_atomically(fitted_file, text);
     post::write_file_atomically(out / "fit.json", to_json(fit).dump(2) + "\n");
-    post::write_compare_report(out / "fit.html", report_input(c, fit));
+    post::write_compare_report(out / "fit.html", report_input(c, m, fit));
     read_case(fitted_file.string());  // the calibrated case must read back as a case
     if (!o.quiet) {
         std::printf("%-16s %12s %12s   %s\n", "unknown", "start", "fitted", "approximate 95 % interval");

@@ -72,12 +72,31 @@ Measurements read_measurements(const std::string& path, const Case& c) {
         }
         m.thermocouples.push_back(std::move(t));
     }
+    auto boundary = doc.section("boundary", false);
+    if (boundary.present()) {
+        const std::string points = boundary.text("points", "");
+        m.boundary_uncertainty = boundary.quantity("uncertainty", Dimension::length, "mm", 0.2 * mm, Bounds{0, 10 * mm, true, false});
+        if (points.empty()) {
+            boundary.error("points", "missing: a file of rows y_mm, z_mm");
+        } else {
+            const std::filesystem::path f(points);
+            const std::string file = (f.is_relative() ? std::filesystem::path(path).parent_path() / f : f).string();
+            static constexpr std::string_view names[] = {"y", "z"};
+            try {
+                for (const auto& row : read_number_table(file, {"fusion boundary", names, "y_mm, z_mm"}, 2)) {
+                    m.boundary.push_back({row.cells[0].value * mm, row.cells[1].value * mm});
+                }
+            } catch (const NumberTableError& e) {
+                boundary.error("points", e.what());
+            }
+        }
+    }
     auto fit = doc.section("fit", false);
     m.unknowns = fit.choice_list("unknowns", unknown_names, {"arc_efficiency", "depth", "half_width"});
     m.iterations = static_cast<int>(fit.integer("iterations", 1, 100, 12));
     if (m.unknowns.empty()) fit.error("unknowns", "give at least one unknown");
-    if (m.section.empty() && m.thermocouples.empty()) {
-        doc.error("section", "nothing measured: give section dimensions and/or a [thermocouple]");
+    if (m.section.empty() && m.thermocouples.empty() && m.boundary.empty()) {
+        doc.error("section", "nothing measured: give section dimensions, a [thermocouple] and/or a [boundary]");
     }
     doc.finish();
     return m;

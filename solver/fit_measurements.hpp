@@ -8,6 +8,8 @@
 //   [uncertainty]        the same keys: one standard uncertainty each (defaults 0.2 mm, 2 mm²)
 //   [thermocouple]       optional: x, y, z (where it sat, default mm), trace (a file of rows
 //                        time_s, temperature_degC), uncertainty (default 15 K)
+//   [boundary]           optional: points (a file of rows y_mm, z_mm: the fusion boundary digitised
+//                        from a macro photo, in the cross-section frame), uncertainty (default 0.2 mm)
 //   [fit]                unknowns = a list from arc_efficiency, half_width, depth, front_length,
 //                        rear_length (default ["arc_efficiency", "depth", "half_width"]);
 //                        iterations (default 12)
@@ -37,6 +39,8 @@ struct Measurements {
     std::string file;
     std::vector<SectionMeasurement> section;
     std::vector<ThermocoupleTrace> thermocouples;
+    std::vector<std::array<double, 2>> boundary;  // (y, z) in m
+    double boundary_uncertainty = 0.2e-3;         // m
     std::vector<std::string> unknowns;
     int iterations = 12;
 };

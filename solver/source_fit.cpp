@@ -13,6 +13,7 @@
 #include <atomic>
 #include <cmath>
 #include <cstdio>
+#include <limits>
 #include <stdexcept>
 
 namespace heatbead {
@@ -35,6 +36,21 @@ double section_value(const post::CrossSection& x, const std::string& key) {
     if (key == "haz_width_web") return x.haz_width_web;
     if (key == "fused_area") return x.fused_area;
     throw std::invalid_argument("no section quantity " + key);
+}
+
+// Distance from a point to the nearest segment of any of the lines [m] (infinite without lines).
+double distance_to(const std::vector<post::Polyline>& lines, const std::array<double, 2>& p) {
+    double best = std::numeric_limits<double>::infinity();
+    for (const auto& line : lines) {
+        for (std::size_t i = 1; i < line.points.size(); ++i) {
+            const auto& a = line.points[i - 1];
+            const auto& b = line.points[i];
+            const double dy = b[0] - a[0], dz = b[1] - a[1], len2 = dy * dy + dz * dz;
+            const double u = len2 > 0 ? std::clamp(((p[0] - a[0]) * dy + (p[1] - a[1]) * dz) / len2, 0.0, 1.0) : 0.0;
+            best = std::min(best, std::hypot(p[0] - a[0] - u * dy, p[1] - a[1] - u * dz));
+        }
+    }
+    return best;
 }
 
 double interpolate(const std::vector<double>& t, const std::vector<double>& v, double at) {
@@ -90,6 +106,9 @@ struct Problem {
                 p.values.push_back(interpolate(probe.time, probe.temperature, m.thermocouples[k].time[i]));
             }
         }
+        // A digitised boundary point's predicted value is its distance from the predicted fusion
+        // line (measured: 0); 20 mm stands in when no line was predicted at all.
+        for (const auto& b : m.boundary) p.values.push_back(std::min(distance_to(a.section.fusion_line, b), 20e-3));
         for (std::size_t i = 0; i < p.values.size(); ++i) {
             p.residuals.push_back((p.values[i] - measured[i]) / uncertainty[i]);
             p.misfit += p.residuals.back() * p.residuals.back();
@@ -161,6 +180,10 @@ FitResult fit_source(const Case& c, const Measurements& m, int jobs, int threads
             pb.labels.push_back("thermocouple at " + fmt("%.1f s", tc.time[i]));
             pb.measured.push_back(tc.temperature[i]), pb.uncertainty.push_back(tc.uncertainty);
         }
+    }
+    for (std::size_t i = 0; i < m.boundary.size(); ++i) {
+        pb.labels.push_back("boundary point " + std::to_string(i + 1));
+        pb.measured.push_back(0), pb.uncertainty.push_back(m.boundary_uncertainty);
     }
     const std::size_t n = m.unknowns.size(), rows = pb.measured.size();
     FitResult out;

@@ -4,6 +4,7 @@
 // returns the parameters that made them, to within the noise (Gauss–Markov; Marquardt 1963 for
 // the method).
 #include "solver/case_reader.hpp"
+#include "solver/fit_measurements.hpp"
 #include "solver/run_analysis.hpp"
 #include "solver/run_setup.hpp"
 #include "solver/source_fit.hpp"
@@ -83,6 +84,18 @@ TEST_CASE("a thermocouple trace gives back the efficiency", "[fit][slow]") {
     m.unknowns = {"arc_efficiency"};
     Case start = truth;
     set_unknown(start, "arc_efficiency", 0.8 * 1.3);
+    const FitResult f = fit_source(start, m, 2, 1);
+    INFO("efficiency " << f.unknowns[0].value << " in " << f.runs << " runs");
+    CHECK(f.unknowns[0].value == Approx(0.8).epsilon(0.05));
+}
+
+TEST_CASE("a digitised fusion boundary gives back the efficiency", "[fit][slow]") {
+    // tests/cases/fit_boundary.csv: points of the truth's fusion line, rounded to 0.1 mm.
+    const Case truth = read_case(truth_file).value;
+    const Measurements m = read_measurements(std::string(HEATBEAD_SOURCE_DIR) + "/tests/cases/fit_boundary.toml", truth);
+    REQUIRE(m.boundary.size() == 7);
+    Case start = truth;
+    set_unknown(start, "arc_efficiency", 0.8 * 0.75);
     const FitResult f = fit_source(start, m, 2, 1);
     INFO("efficiency " << f.unknowns[0].value << " in " << f.runs << " runs");
     CHECK(f.unknowns[0].value == Approx(0.8).epsilon(0.05));
