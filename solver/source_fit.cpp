@@ -161,8 +161,11 @@ void set_unknown(Case& c, const std::string& name, double value) {
     else throw std::invalid_argument("unknown " + name);
 }
 
-FitResult fit_source(const Case& c, const Measurements& m, int jobs, int threads,
-                     const std::function<void(const std::string&)>& progress) {
+namespace {
+
+// The fit on the grid of `c`, from θ = `theta` (ln of value over the case's value; empty: 0).
+FitResult fit_on_grid(const Case& c, const Measurements& m, std::vector<double> theta, int iterations, int jobs,
+                      int threads, const std::function<void(const std::string&)>& progress) {
     const mesh::Grid grid = mesh::build_grid(c.joint, c.grid);
     const Material material = make_material(c.base);
     Problem pb{c, m, grid, material, {}, {}, {}, {}, {}, {}, std::max(threads, 1), {}};
@@ -188,7 +191,7 @@ FitResult fit_source(const Case& c, const Measurements& m, int jobs, int threads
     const std::size_t n = m.unknowns.size(), rows = pb.measured.size();
     FitResult out;
     out.labels = pb.labels, out.measured = pb.measured, out.uncertainty = pb.uncertainty;
-    std::vector<double> theta(n, 0.0);
+    theta.resize(n, 0.0);
     Prediction current = pb.predict(theta);
     out.before = current;
     double lambda = 1e-2;
@@ -208,7 +211,7 @@ FitResult fit_source(const Case& c, const Measurements& m, int jobs, int threads
             for (std::size_t i = 0; i < rows; ++i) J(Eigen::Index(i), Eigen::Index(j)) = (preds[j].residuals[i] - current.residuals[i]) / step;
         }
     };
-    for (out.iterations = 0; out.iterations < m.iterations; ++out.iterations) {
+    for (out.iterations = 0; out.iterations < iterations; ++out.iterations) {
         jacobian();
         const Eigen::VectorXd r = Eigen::Map<const Eigen::VectorXd>(current.residuals.data(), Eigen::Index(rows));
         const Eigen::MatrixXd A = J.transpose() * J;
@@ -226,7 +229,7 @@ FitResult fit_source(const Case& c, const Measurements& m, int jobs, int threads
                 const double gain = (current.misfit - p.misfit) / std::max(current.misfit, 1e-300);
                 theta = trial, current = p, lambda = std::max(lambda / 3, 1e-6), accepted = true;
                 if (progress) progress("iteration " + std::to_string(out.iterations + 1) + ": misfit " + fmt("%.4g", p.misfit));
-                if (gain < 1e-3) out.iterations = m.iterations;  // converged: no real gain left
+                if (gain < 1e-3) out.iterations = iterations;  // converged: no real gain left
             } else {
                 lambda *= 4;
             }
@@ -270,6 +273,32 @@ FitResult fit_source(const Case& c, const Measurements& m, int jobs, int threads
     if (rows <= n) out.warnings.push_back("no more measurements than unknowns: the intervals are not meaningful");
     out.fitted = pb.case_at(theta);
     out.fitted.output.probes = c.output.probes;
+    return out;
+}
+
+}  // namespace
+
+FitResult fit_source(const Case& c, const Measurements& m, int jobs, int threads,
+                     const std::function<void(const std::string&)>& progress) {
+    // Fine grids are fitted coarse first (twice the spacing: a quarter of the cells), then refined
+    // on the case's own grid from there, where a few iterations correct the coarse grid's bias.
+    const double finest = c.grid.cross_section.finest;
+    if (finest >= 0.99e-3) return fit_on_grid(c, m, {}, m.iterations, jobs, threads, progress);
+    Case coarse = c;
+    coarse.grid.cross_section.finest = 2 * finest;
+    coarse.grid.cross_section.coarsest = std::max(coarse.grid.cross_section.coarsest, 2 * finest);
+    coarse.grid.along_weld = 2 * c.grid.along_weld;
+    if (progress) progress("first on a grid of " + fmt("%.2f mm", 2 * finest * 1e3));
+    const FitResult first = fit_on_grid(coarse, m, {}, m.iterations, jobs, threads, progress);
+    std::vector<double> theta;
+    for (const auto& u : first.unknowns) theta.push_back(std::log(u.value / u.start));
+    if (progress) progress("then on the case's grid of " + fmt("%.2f mm", finest * 1e3));
+    FitResult out = fit_on_grid(c, m, theta, std::min(m.iterations, 4), jobs, threads, progress);
+    for (std::size_t j = 0; j < out.unknowns.size(); ++j) out.unknowns[j].start = first.unknowns[j].start;
+    out.before = first.before;
+    out.runs += first.runs;
+    out.iterations += first.iterations;
+    out.warnings.push_back("the misfit before the fit is the coarse grid's, where the fit started");
     return out;
 }
 
