@@ -1,5 +1,6 @@
 #include "solver/source_fit.hpp"
 
+#include "solver/least_squares.hpp"
 #include "solver/parallel_tasks.hpp"
 #include "solver/procedure.hpp"
 #include "solver/run_analysis.hpp"
@@ -14,6 +15,8 @@
 #include <cmath>
 #include <cstdio>
 #include <limits>
+#include <map>
+#include <optional>
 #include <stdexcept>
 
 namespace heatbead {
@@ -125,13 +128,6 @@ struct Problem {
         }
         return out;
     }
-
-    std::vector<double> clamp(std::vector<double> theta) const {
-        for (std::size_t j = 0; j < theta.size(); ++j) {
-            theta[j] = std::clamp(theta[j], std::log(low[j] / start[j]), std::log(high[j] / start[j]));
-        }
-        return theta;
-    }
 };
 
 }  // namespace
@@ -191,55 +187,32 @@ FitResult fit_on_grid(const Case& c, const Measurements& m, std::vector<double> 
     const std::size_t n = m.unknowns.size(), rows = pb.measured.size();
     FitResult out;
     out.labels = pb.labels, out.measured = pb.measured, out.uncertainty = pb.uncertainty;
-    theta.resize(n, 0.0);
-    Prediction current = pb.predict(theta);
-    out.before = current;
-    double lambda = 1e-2;
-    const double h = 0.05;  // forward-difference step in ln p: 5 %
-    Eigen::MatrixXd J(rows, n);
-    const auto jacobian = [&] {
-        std::vector<std::vector<double>> shifted;
-        for (std::size_t j = 0; j < n; ++j) {
-            auto t = theta;
-            const bool at_top = theta[j] + h > std::log(pb.high[j] / pb.start[j]);
-            t[j] += at_top ? -h : h;  // step back from the upper bound
-            shifted.push_back(t);
+    // Every prediction made, by θ, and the first (the start): both ends are reported.
+    std::map<std::vector<double>, Prediction> seen;
+    std::optional<Prediction> first;
+    const ResidualBatch residuals = [&](const std::vector<std::vector<double>>& thetas) {
+        const auto preds = pb.predict_all(thetas, jobs);
+        if (!first) first = preds.front();
+        std::vector<std::vector<double>> out_r;
+        for (std::size_t i = 0; i < thetas.size(); ++i) {
+            seen[thetas[i]] = preds[i];
+            out_r.push_back(preds[i].residuals);
         }
-        const auto preds = pb.predict_all(shifted, jobs);
-        for (std::size_t j = 0; j < n; ++j) {
-            const double step = shifted[j][j] - theta[j];
-            for (std::size_t i = 0; i < rows; ++i) J(Eigen::Index(i), Eigen::Index(j)) = (preds[j].residuals[i] - current.residuals[i]) / step;
-        }
+        return out_r;
     };
-    for (out.iterations = 0; out.iterations < iterations; ++out.iterations) {
-        jacobian();
-        const Eigen::VectorXd r = Eigen::Map<const Eigen::VectorXd>(current.residuals.data(), Eigen::Index(rows));
-        const Eigen::MatrixXd A = J.transpose() * J;
-        const Eigen::VectorXd g = J.transpose() * r;
-        bool accepted = false;
-        for (int attempt = 0; attempt < 6 && !accepted; ++attempt) {
-            Eigen::MatrixXd damped = A;
-            for (Eigen::Index j = 0; j < Eigen::Index(n); ++j) damped(j, j) += lambda * std::max(A(j, j), 1e-12);
-            const Eigen::VectorXd delta = -damped.ldlt().solve(g);
-            std::vector<double> trial(n);
-            for (std::size_t j = 0; j < n; ++j) trial[j] = theta[j] + delta(Eigen::Index(j));
-            trial = pb.clamp(trial);
-            const Prediction p = pb.predict(trial);
-            if (p.misfit < current.misfit) {
-                const double gain = (current.misfit - p.misfit) / std::max(current.misfit, 1e-300);
-                theta = trial, current = p, lambda = std::max(lambda / 3, 1e-6), accepted = true;
-                if (progress) progress("iteration " + std::to_string(out.iterations + 1) + ": misfit " + fmt("%.4g", p.misfit));
-                if (gain < 1e-3) out.iterations = iterations;  // converged: no real gain left
-            } else {
-                lambda *= 4;
-            }
-        }
-        if (!accepted) break;  // no step improves the misfit: a minimum within the bounds
-    }
-    out.after = current;
+    std::vector<double> low, high;
+    for (std::size_t j = 0; j < n; ++j) low.push_back(std::log(pb.low[j] / pb.start[j])), high.push_back(std::log(pb.high[j] / pb.start[j]));
+    theta.resize(n, 0.0);
+    const LeastSquaresFit ls = levenberg_marquardt(residuals, theta, low, high, iterations, 0.05, [&](int i, double misfit) {
+        if (progress) progress("iteration " + std::to_string(i) + ": misfit " + fmt("%.4g", misfit));
+    });
+    theta = ls.theta;
+    out.iterations = ls.iterations;
+    out.before = *first;
+    out.after = seen.at(theta);
     out.runs = pb.runs.load();
-    // Uncertainty of the fitted unknowns from the Jacobian at the solution.
-    jacobian();
+    const Prediction& current = out.after;
+    const Eigen::MatrixXd& J = ls.jacobian;
     const Eigen::MatrixXd A = J.transpose() * J;
     const double dof = rows > n ? double(rows - n) : 0;
     const double s2 = dof > 0 ? current.misfit / dof : 1.0;

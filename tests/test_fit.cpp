@@ -5,13 +5,17 @@
 // the method).
 #include "solver/case_reader.hpp"
 #include "solver/fit_measurements.hpp"
+#include "solver/least_squares.hpp"
 #include "solver/run_analysis.hpp"
 #include "solver/run_setup.hpp"
 #include "solver/source_fit.hpp"
+#include "tests/analytic/moving_sources.hpp"
+#include "tests/moving_source_block.hpp"
 
 #include <catch2/catch.hpp>
 
 #include <atomic>
+#include <cmath>
 #include <string>
 
 using namespace heatbead;
@@ -111,4 +115,45 @@ TEST_CASE("a front length a cross-section cannot see is reported as such", "[fit
     bool said = false;
     for (const auto& w : f.warnings) said = said || w.find("front_length is barely seen by a cross-section") != std::string::npos;
     CHECK(said);
+}
+
+TEST_CASE("a thermocouple-only fit of the efficiency returns the analytic solution's", "[fit][slow]") {
+    // Constant properties on a block standing in for a semi-infinite body (tests/moving_source_block.hpp).
+    // The "measured" trace is the transient double-ellipsoid solution (time-integral form after
+    // Nguyen et al. 1999, tests/analytic) for a net power of 0.8 x 3750 W = 3000 W. The fit, with the
+    // Levenberg-Marquardt core `heatbead fit` uses, adjusts the efficiency of a simulated 3750 W arc
+    // from 0.56 (30 % low) until its trace matches, and must return 0.8 within 3 % (the simulation
+    // itself matches this solution within 3 %, tests/test_solver.cpp).
+    using namespace heatbead::testing;
+    const MovingSourceRun truth(3e-3, 3e-3, 3e-3, 6e-3, 1.5e-3);
+    const Material m = constant_material(truth.k, truth.rho, truth.c);
+    const auto at = truth.centre_near(20e-3, 6e-3, -2e-3);
+    std::vector<double> times, measured;
+    for (double t = 4; t <= 10; t += 0.5) {
+        times.push_back(t);
+        measured.push_back(20 + analytic::double_ellipsoid_rise(truth.analytic_source(), truth.props(), at[0], at[1], at[2], t));
+    }
+    const double electrical = truth.Q / 0.8, start = 0.56;
+    int runs = 0;
+    const ResidualBatch residuals = [&](const std::vector<std::vector<double>>& thetas) {
+        std::vector<std::vector<double>> out;
+        for (const auto& theta : thetas) {
+            MovingSourceRun run = truth;
+            run.Q = electrical * start * std::exp(theta[0]);
+            auto sim = run.simulation(m, "rkl2", 20, times.back() + 0.5);
+            sim->add_probe("thermocouple", at);
+            std::atomic<bool> stop{false};
+            sim->run(stop);
+            ++runs;
+            std::vector<double> r;
+            for (std::size_t i = 0; i < times.size(); ++i) r.push_back((value_at(sim->probes().front(), times[i]) - measured[i]) / 10);
+            out.push_back(std::move(r));
+        }
+        return out;
+    };
+    const LeastSquaresFit fit = levenberg_marquardt(residuals, {0.0}, {std::log(0.3 / start)}, {std::log(1.0 / start)}, 8);
+    const double efficiency = start * std::exp(fit.theta[0]);
+    INFO("efficiency " << efficiency << " after " << runs << " runs; misfit " << fit.start_misfit << " -> " << fit.misfit);
+    CHECK(efficiency == Approx(0.8).epsilon(0.03));
+    CHECK(fit.misfit < 1e-2 * fit.start_misfit);
 }
