@@ -21,7 +21,7 @@ constexpr const char* standard_caution =
     "that any of them is adequate. Fusion, hardness and preheat are proven by procedure qualification "
     "(macro-etch, hardness survey) under the governing welding code; follow it and licensed engineering practice.";
 
-constexpr const char* page_style = R"(thead th{font-weight:bold;color:#222;border-bottom:2px solid #888}
+constexpr const char* page_style = R"(
 .differences{max-width:60em}
 )";
 

@@ -17,6 +17,7 @@ h1{font-size:1.5em;margin:0 0 .2em}h2{font-size:1.15em;margin:1em 0 .4em}
 .tables{display:flex;flex-wrap:wrap;gap:2em}
 table{border-collapse:collapse}th,td{border-bottom:1px solid #ddd;padding:.25em .8em;text-align:left;vertical-align:top}
 th{font-weight:normal;color:#444}td{font-variant-numeric:tabular-nums}
+thead th{font-weight:bold;color:#222;border-bottom:2px solid #888}
 .figures{display:flex;flex-wrap:wrap;gap:1.5em;margin-top:1.5em}
 figure{margin:0;flex:0 1 660px}figure svg{max-width:100%;height:auto;display:block}
 figcaption{font-size:.9em;color:#444;margin-top:.3em}

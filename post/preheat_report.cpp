@@ -24,7 +24,7 @@ constexpr const char* standard_caution =
 
 // The page's own rules: the header row of the runs table, and the runs that meet every limit, marked
 // by weight as well as by colour so they still stand out in grey print.
-constexpr const char* page_style = R"(thead th{font-weight:bold;color:#222;border-bottom:2px solid #888}
+constexpr const char* page_style = R"(
 tr.passes td{background:#e2f0e2;font-weight:bold}
 .explanation{max-width:60em}
 )";

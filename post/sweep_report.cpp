@@ -31,7 +31,7 @@ constexpr const char* standard_caution =
 // An output's figures take the width of their own SVG (most are narrower than the shared 660 px, so
 // two or three fit side by side); the caption wraps within it rather than widening the figure to its
 // one-line length (width 0, stretched back by min-width).
-constexpr const char* page_style = R"(thead th{font-weight:bold;color:#222;border-bottom:2px solid #888}
+constexpr const char* page_style = R"(
 .summary{font-weight:bold}
 .note{color:#555;max-width:60em}
 .responses figure{flex-basis:auto}.responses figcaption{width:0;min-width:100%}

@@ -122,8 +122,7 @@ constexpr std::string_view builtin_steel = "carbon_steel_en1993";
 void read_thermal_properties(Section& s, MaterialSpec& m, const std::string& case_path) {
     m.properties = s.text("properties", builtin_steel);
     if (m.properties != builtin_steel) {
-        const std::filesystem::path table(m.properties);
-        m.properties_file = (table.is_relative() ? std::filesystem::path(case_path).parent_path() / table : table).string();
+        m.properties_file = path_beside(m.properties, case_path);
         if (!std::filesystem::is_regular_file(m.properties_file)) {
             s.error("properties", "neither \"" + std::string(builtin_steel) + "\" nor a readable property table file (" +
                                       m.properties_file + ")");
@@ -184,8 +183,7 @@ void read_waveform_power(Section& procedure, ProcedureSpec& p, const std::string
                       *length * 1e3);
         p.power_basis = buf;
     } else {
-        const std::filesystem::path file(samples);
-        const std::string path = (file.is_relative() ? std::filesystem::path(case_path).parent_path() / file : file).string();
+        const std::string path = path_beside(samples, case_path);
         try {
             const WaveformMeans m = read_waveform(path);
             p.instantaneous_power = m.power;

@@ -4,7 +4,6 @@
 #include "solver/toml_reader.hpp"
 
 #include <cstdio>
-#include <filesystem>
 #include <string_view>
 
 namespace heatbead {
@@ -58,8 +57,7 @@ Measurements read_measurements(const std::string& path, const Case& c) {
         if (trace.empty()) {
             tc.error("trace", "missing: a file of rows time_s, temperature_degC");
         } else {
-            const std::filesystem::path f(trace);
-            const std::string file = (f.is_relative() ? std::filesystem::path(path).parent_path() / f : f).string();
+            const std::string file = path_beside(trace, path);
             static constexpr std::string_view names[] = {"time", "temperature"};
             try {
                 for (const auto& row : read_number_table(file, {"thermocouple trace", names, "time_s, temperature_degC"}, 2)) {
@@ -79,8 +77,7 @@ Measurements read_measurements(const std::string& path, const Case& c) {
         if (points.empty()) {
             boundary.error("points", "missing: a file of rows y_mm, z_mm");
         } else {
-            const std::filesystem::path f(points);
-            const std::string file = (f.is_relative() ? std::filesystem::path(path).parent_path() / f : f).string();
+            const std::string file = path_beside(points, path);
             static constexpr std::string_view names[] = {"y", "z"};
             try {
                 for (const auto& row : read_number_table(file, {"fusion boundary", names, "y_mm, z_mm"}, 2)) {

@@ -7,7 +7,6 @@
 #include <algorithm>
 #include <cmath>
 #include <cstdio>
-#include <filesystem>
 #include <fstream>
 #include <numeric>
 #include <random>
@@ -166,10 +165,8 @@ SweepPlan read_sweep_plan(const std::string& path) {
         throw CaseError({{path + ":" + std::to_string(e.source().begin.line), "", "", std::string(e.description())}});
     }
     check_known(r, root, top_keys, "");
-    const auto dir = std::filesystem::path(path).parent_path();
     if (auto base = root["base"].value<std::string>()) {
-        const std::filesystem::path b(*base);
-        plan.base = (b.is_relative() ? dir / b : b).string();
+        plan.base = path_beside(*base, path);
     } else {
         r.fail(root.get("base"), "base", "missing or not text: the base case file, relative to the sweep file");
     }

@@ -4,6 +4,7 @@
 #include <cerrno>
 #include <cmath>
 #include <cstring>
+#include <filesystem>
 #include <fstream>
 #include <sstream>
 
@@ -95,6 +96,11 @@ bool Bounds::contains(double v) const {
     if (lo_open ? !(v > lo) : !(v >= lo)) return false;
     if (hi_open ? !(v < hi) : !(v <= hi)) return false;
     return true;
+}
+
+std::string path_beside(const std::string& name, const std::string& input_file) {
+    const std::filesystem::path f(name);
+    return (f.is_relative() ? std::filesystem::path(input_file).parent_path() / f : f).string();
 }
 
 std::size_t edit_distance(std::string_view a, std::string_view b) {

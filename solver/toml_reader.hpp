@@ -156,6 +156,10 @@ private:
     const toml::table* table_;
 };
 
+// A file named inside an input file (a property table, a waveform, a trace): relative names are
+// taken from the folder of `input_file`, absolute ones as they are.
+std::string path_beside(const std::string& name, const std::string& input_file);
+
 // Renders a TOML node as it would be written in a case file (for messages).
 std::string render(const toml::node& node);
 // Levenshtein distance, for "did you mean" suggestions.

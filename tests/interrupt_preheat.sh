@@ -3,6 +3,8 @@
 # runs it finished in preheat_runs.csv (whole rows, header first) and writes no answer.
 #   bash interrupt_preheat.sh HEATBEAD CASE OUT_DIR [--set key=value ...]
 set -u
+# shellcheck source=interrupt_helpers.sh
+source "$(dirname "$0")/interrupt_helpers.sh"
 heatbead=$1 case_file=$2 out=$3
 shift 3
 rm -rf "$out"
@@ -26,17 +28,7 @@ for _ in $(seq 1200); do
 done
 [[ -s $out/preheat_runs.csv ]] || { kill -KILL "$pid"; fail "no round finished within 120 s"; }
 sleep 0.5
-kill -INT "$pid"
-for _ in $(seq 300); do
-  kill -0 "$pid" 2>/dev/null || break
-  sleep 0.1
-done
-kill -0 "$pid" 2>/dev/null && { kill -KILL "$pid"; fail "heatbead still running 30 s after SIGINT"; }
-wait "$pid"
-code=$?
-
-[[ $code -eq 2 ]] || fail "exit code $code, expected 2"
-grep -q "interrupted" "$err" || fail "stderr does not say 'interrupted'"
+interrupt_and_expect_2 "$pid"
 [[ ! -e $out/preheat.json ]] || fail "an interrupted search wrote an answer ($out/preheat.json)"
 [[ ! -e $out/preheat.html ]] || fail "an interrupted search wrote a report ($out/preheat.html)"
 head -1 "$out/preheat_runs.csv" | grep -q '^preheat \[degC\],' || fail "preheat_runs.csv has no header"

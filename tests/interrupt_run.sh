@@ -2,6 +2,8 @@
 # Ctrl-C during a run: heatbead stops at the next step, exits 2, says so, and writes nothing.
 #   bash interrupt_run.sh HEATBEAD CASE OUT_DIR
 set -u
+# shellcheck source=interrupt_helpers.sh
+source "$(dirname "$0")/interrupt_helpers.sh"
 heatbead=$1 case_file=$2 out=$3
 rm -rf "$out"
 err=$(mktemp)
@@ -29,17 +31,7 @@ done
 ((caught)) || { kill -KILL "$pid"; fail "heatbead did not install a SIGINT handler within 30 s"; }
 
 sleep 1  # let it step for a while: the interrupt should land mid-run, not before the first step
-kill -INT "$pid"
-for _ in $(seq 300); do
-  kill -0 "$pid" 2>/dev/null || break
-  sleep 0.1
-done
-kill -0 "$pid" 2>/dev/null && { kill -KILL "$pid"; fail "heatbead still running 30 s after SIGINT"; }
-wait "$pid"
-code=$?
-
-[[ $code -eq 2 ]] || fail "exit code $code, expected 2"
-grep -q "interrupted" "$err" || fail "stderr does not say 'interrupted'"
+interrupt_and_expect_2 "$pid"
 grep -q "nothing was written" "$err" || fail "stderr does not say 'nothing was written'"
 [[ ! -e $out/results.h5 ]] || fail "an interrupted run wrote $out/results.h5"
 [[ ! -e $out ]] || fail "an interrupted run left $out behind"
