@@ -5,8 +5,8 @@
 
 #include "mesh/grading.hpp"
 #include "mesh/grid.hpp"
-#include "solver/material.hpp"
-#include "solver/simulation.hpp"
+#include "solver/physics/material.hpp"
+#include "solver/numerics/simulation.hpp"
 #include "tests/analytic/moving_sources.hpp"
 
 #include <array>

@@ -1,6 +1,6 @@
 // Case files: bad input is rejected with messages naming file, line, key, value and what is
 // allowed; good input resolves to SI and round-trips through the resolved listing.
-#include "solver/case_reader.hpp"
+#include "solver/studies/run_setup.hpp"
 
 #include <catch2/catch.hpp>
 
@@ -30,7 +30,7 @@ std::string header_value(const fs::path& file, const std::string& tag) {
 
 std::vector<Diagnostic> diagnostics_of(const std::string& path, const std::vector<Override>& overrides = {}) {
     try {
-        read_case(path, overrides);
+        load_case(path, overrides);
     } catch (const CaseError& e) {
         return e.diagnostics();
     }
@@ -98,7 +98,7 @@ TEST_CASE("bad --set values are rejected and named as command-line options", "[c
     SECTION("no equals sign") { CHECK_THROWS_AS(parse_override("joint.length"), CaseError); }
     SECTION("empty key path part") { CHECK_THROWS_AS(parse_override("joint..length=3"), CaseError); }
     SECTION("into a value") {
-        CHECK_THROWS_AS(read_case(minimal, {parse_override("joint.length.x=3")}), CaseError);
+        CHECK_THROWS_AS(load_case(minimal, {parse_override("joint.length.x=3")}), CaseError);
     }
 }
 
@@ -116,7 +116,7 @@ TEST_CASE("a missing file is reported, not a crash", "[case]") {
 
 TEST_CASE("quantities with units resolve to SI", "[case]") {
     // 1 in = 25.4 mm exactly (NIST SP 811); °F → °C = (°F − 32)·5/9 (NIST SP 811).
-    const auto c = read_case(minimal, {parse_override("joint.flange_thickness=1/2 in"),
+    const auto c = load_case(minimal, {parse_override("joint.flange_thickness=1/2 in"),
                                        parse_override("procedure.travel_speed=16 in/min"),
                                        parse_override("procedure.wire_feed=300 ipm"),
                                        parse_override("temperatures.preheat=300 degF")})
@@ -126,7 +126,7 @@ TEST_CASE("quantities with units resolve to SI", "[case]") {
     CHECK(*c.procedure.wire_feed_speed == Approx(0.127).epsilon(1e-12));
     CHECK(c.temperatures.preheat == Approx((300.0 - 32) * 5 / 9).epsilon(1e-12));
     // Bare numbers are in the documented default units: mm, A, V, mm/s, m/min.
-    const auto d = read_case(minimal).value;
+    const auto d = load_case(minimal).value;
     CHECK(d.joint.web_height == Approx(0.080));
     CHECK(d.procedure.current == Approx(200));
     CHECK(d.procedure.travel_speed == Approx(0.005));
@@ -134,7 +134,7 @@ TEST_CASE("quantities with units resolve to SI", "[case]") {
 }
 
 TEST_CASE("defaults are filled in and the resolved case reads back to itself", "[case]") {
-    const auto first = read_case(minimal);
+    const auto first = load_case(minimal);
     const Case& c = first.value;
     CHECK(c.joint.leg_web == c.joint.leg_flange);
     CHECK(c.temperatures.preheat == 20);
@@ -144,7 +144,7 @@ TEST_CASE("defaults are filled in and the resolved case reads back to itself", "
 
     const fs::path again = fs::temp_directory_path() / "heatbead_resolved_roundtrip.toml";
     std::ofstream(again) << first.resolved_toml;
-    const auto second = read_case(again.string());
+    const auto second = load_case(again.string());
     fs::remove(again);
     const Case& r = second.value;
     CHECK(r.joint.flange_thickness == Approx(c.joint.flange_thickness).epsilon(1e-12));
@@ -163,7 +163,7 @@ TEST_CASE("defaults are filled in and the resolved case reads back to itself", "
 }
 
 TEST_CASE("the demo case is valid", "[case]") {
-    const auto c = read_case((source_dir / "cases/demo_tee_15mm.toml").string()).value;
+    const auto c = load_case((source_dir / "cases/demo_tee_15mm.toml").string()).value;
     CHECK(c.procedure.transfer == Transfer::spray);
     CHECK(c.base.composition.has_value());
     CHECK(c.filler.diffusible_hydrogen.value() == Approx(4));

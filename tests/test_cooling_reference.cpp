@@ -7,10 +7,10 @@
 // (The fusion boundary against an analytic solution is checked in test_solver.)
 #include "post/cross_section.hpp"
 #include "post/haz_cooling.hpp"
-#include "solver/case_reader.hpp"
-#include "solver/procedure.hpp"
-#include "solver/run_analysis.hpp"
-#include "solver/run_setup.hpp"
+#include "solver/case/case_reader.hpp"
+#include "solver/physics/procedure.hpp"
+#include "solver/studies/run_analysis.hpp"
+#include "solver/studies/run_setup.hpp"
 
 #include <catch2/catch.hpp>
 
@@ -29,15 +29,16 @@ struct Cooling {
 
 Cooling run_reference(std::vector<Override> sets) {
     sets.push_back({"grid.finest", "1 mm"});
-    const Case c = read_case(reference, sets).value;
+    const Case c = load_case(reference, sets).value;
     const mesh::Grid grid = mesh::build_grid(c.joint, c.grid);
     const Material m = make_material(c.base);
     Simulation sim(grid, m, make_losses(c), make_passes(c), make_settings(c));
+    const RecordedHistory recorded = record_history(sim, c.temperatures.preheat);
     std::atomic<bool> stop{false};
     sim.run(stop);
-    const auto section = post::measure_cross_section(c.joint, grid, sim.cells(), sim.history().peak(), c.output.station,
+    const auto section = post::measure_cross_section(c.joint, grid, sim.cells(), recorded.history->peak(), c.output.station,
                                                      1, section_levels(c));
-    const auto haz = post::haz_cooling(sim.cells(), sim.history(), section.slice, c.base.solidus);
+    const auto haz = post::haz_cooling(sim.cells(), *recorded.history, section.slice, c.base.solidus);
     REQUIRE(haz.t8_5);
     return {heat_input(c.procedure) * 1e-6, *haz.t8_5};
 }
@@ -65,13 +66,14 @@ TEST_CASE("a quarter-inch short-circuit fillet on half-inch plate fuses the root
     // Common practice, no source: on half-inch plate a quarter-inch fillet laid at about 250 A and
     // 24 V with 1.2 mm solid wire in short-circuit transfer fuses past the root corner into both
     // plates. The prediction must agree.
-    const Case c = read_case(std::string(HEATBEAD_SOURCE_DIR) + "/tests/cases/short_circuit_half_inch.toml").value;
+    const Case c = load_case(std::string(HEATBEAD_SOURCE_DIR) + "/tests/cases/short_circuit_half_inch.toml").value;
     const mesh::Grid grid = mesh::build_grid(c.joint, c.grid);
     const Material m = make_material(c.base);
     Simulation sim(grid, m, make_losses(c), make_passes(c), make_settings(c));
+    const RecordedHistory recorded = record_history(sim, c.temperatures.preheat);
     std::atomic<bool> stop{false};
     REQUIRE(sim.run(stop).completed);
-    const auto x = post::measure_cross_section(c.joint, grid, sim.cells(), sim.history().peak(), c.output.station, 1,
+    const auto x = post::measure_cross_section(c.joint, grid, sim.cells(), recorded.history->peak(), c.output.station, 1,
                                                section_levels(c));
     INFO("penetration flange " << x.penetration_flange * 1e3 << " mm, web " << x.penetration_web * 1e3 << " mm");
     CHECK(x.root_fused);

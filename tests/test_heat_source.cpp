@@ -13,7 +13,7 @@
 #include "mesh/grid.hpp"
 #include "mesh/joint.hpp"
 #include "mesh/solid_cells.hpp"
-#include "solver/heat_source.hpp"
+#include "solver/physics/heat_source.hpp"
 
 using namespace heatbead;
 

@@ -1,5 +1,5 @@
 // The bracketing search behind `heatbead preheat`, on tests whose answer is known exactly.
-#include "solver/ladder_search.hpp"
+#include "solver/studies/ladder_search.hpp"
 
 #include <catch2/catch.hpp>
 

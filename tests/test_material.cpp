@@ -8,7 +8,8 @@
 //  - "hand computation": integrals of those formulas and other arithmetic done by hand (written out beside
 //    each check), with the project's documented extension: k and c held constant outside 20–1200 °C;
 //  - absolute zero −273.15 °C: definition of the Celsius scale, SI Brochure (from memory).
-#include "solver/material.hpp"
+#include "solver/case/table_files.hpp"
+#include "solver/physics/material.hpp"
 
 #include <catch2/catch.hpp>
 

@@ -1,5 +1,5 @@
 // Transformation temperatures against values worked by hand from the published formulas.
-#include "solver/metallurgy.hpp"
+#include "solver/weldability/metallurgy.hpp"
 
 #include <catch2/catch.hpp>
 

@@ -5,17 +5,18 @@
 //  - EN 1011-2:2001 Annex D: t8/5 grows with the initial temperature T0 (both the 2-D and the 3-D
 //    formula) and with heat input, and falls with plate thickness until 3-D flow (shared REFERENCES
 //    §4);
-//  - HAZ hardness falls as t8/5 grows (the formulas of solver/haz_hardness.hpp, and common
+//  - HAZ hardness falls as t8/5 grows (the formulas of solver/weldability/haz_hardness.hpp, and common
 //    practice, no source);
 //  - so more preheat never raises the hardness, a thicker plate needs at least as much preheat at
 //    the same heat input, and a higher heat input needs no more (common practice, no source).
-#include "solver/case_reader.hpp"
-#include "solver/preheat_search.hpp"
-#include "solver/run_setup.hpp"
-#include "solver/toml_reader.hpp"
+#include "solver/case/case_reader.hpp"
+#include "solver/studies/preheat_search.hpp"
+#include "solver/studies/run_setup.hpp"
+#include "solver/case/toml_reader.hpp"
 
 #include <catch2/catch.hpp>
 
+#include <atomic>
 #include <cmath>
 #include <filesystem>
 #include <string>
@@ -25,13 +26,16 @@ namespace fs = std::filesystem;
 
 namespace {
 
+// No Ctrl-C in a test: the flag studies poll stays clear.
+const std::atomic<bool> never_interrupted{false};
+
 const fs::path source_dir{HEATBEAD_SOURCE_DIR};
 const std::string thick = (source_dir / "tests/cases/preheat_thick.toml").string();
 
-Case thick_case(std::vector<Override> o = {}) { return read_case(thick, o).value; }
+Case thick_case(std::vector<Override> o = {}) { return load_case(thick, o).value; }
 
 double found(const Case& c) {
-    const PreheatAnswer a = find_preheat(c, 2, 1);
+    const PreheatAnswer a = find_preheat(c, 2, 1, never_interrupted);
     REQUIRE(a.found);
     return *a.found;
 }
@@ -44,7 +48,7 @@ TEST_CASE("more preheat: longer t8/5, softer HAZ", "[preheat]") {
     const Material material = make_material(c.base);
     double last_t85 = 0, last_hv = 1e9;
     for (double preheat : {20.0, 120.0, 220.0}) {
-        const PreheatTrial t = run_preheat_trial(c, grid, material, preheat, 2);
+        const PreheatTrial t = run_preheat_trial(c, grid, material, preheat, 2, never_interrupted);
         INFO("preheat " << preheat << " degC: t8/5 " << t.t8_5 << " s, " << t.hardness << " HV");
         CHECK(t.t8_5 > last_t85);
         CHECK(t.hardness < last_hv);
@@ -55,7 +59,7 @@ TEST_CASE("more preheat: longer t8/5, softer HAZ", "[preheat]") {
 
 TEST_CASE("the search finds the lowest passing preheat to the resolution", "[preheat]") {
     const Case c = thick_case();
-    const PreheatAnswer a = find_preheat(c, 2, 1);
+    const PreheatAnswer a = find_preheat(c, 2, 1, never_interrupted);
     REQUIRE(a.found);
     CHECK(a.search.monotone);
     // The trial at the answer passes, the one a step below fails (what "lowest" means).
@@ -67,7 +71,7 @@ TEST_CASE("the search finds the lowest passing preheat to the resolution", "[pre
     CHECK(at);
     CHECK(below);
     // The same answer one run at a time (the batch only changes which candidates are tried).
-    CHECK(*find_preheat(c, 1, 2).found == *a.found);
+    CHECK(*find_preheat(c, 1, 2, never_interrupted).found == *a.found);
     // The standard's inputs come from the case: thicker plate 25 mm, H5 → 5 ml/100 g, and the
     // EN 1011-1 heat input 0.8 × 26 V × 260 A / 5 mm/s = 1.0816 kJ/mm (hand computation).
     CHECK(a.standard_input.thickness == Approx(25));
@@ -89,7 +93,7 @@ TEST_CASE("a hydrogen-diffusion time can only raise the preheat", "[preheat]") {
     // With a lenient hardness limit, only the time above 100 °C decides.
     const double hardness_only = found(thick_case({{"preheat_search.hardness_limit", "450"}}));
     const Case timed = thick_case({{"preheat_search.hardness_limit", "450"}, {"preheat_search.min_time_to_100", "120"}});
-    const PreheatAnswer a = find_preheat(timed, 2, 1);
+    const PreheatAnswer a = find_preheat(timed, 2, 1, never_interrupted);
     REQUIRE(a.found);
     CHECK(*a.found >= hardness_only);
     bool named = false;
@@ -98,7 +102,7 @@ TEST_CASE("a hydrogen-diffusion time can only raise the preheat", "[preheat]") {
 }
 
 TEST_CASE("preheat asks for the composition and the hydrogen by name", "[preheat]") {
-    const Case c = read_case((source_dir / "tests/cases/minimal.toml").string(), {}).value;
+    const Case c = load_case((source_dir / "tests/cases/minimal.toml").string(), {}).value;
     try {
         require_preheat_inputs(c);
         FAIL("no error");

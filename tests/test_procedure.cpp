@@ -1,9 +1,9 @@
 // Derived procedure quantities against hand computations from their definitions, and the
 // EN 1993-1-2 steel properties against values computed by hand from the standard's formulas.
-#include "solver/case_reader.hpp"
-#include "solver/procedure.hpp"
-#include "solver/steel_en1993.hpp"
-#include "solver/waveform.hpp"
+#include "solver/studies/run_setup.hpp"
+#include "solver/physics/procedure.hpp"
+#include "solver/physics/steel_en1993.hpp"
+#include "solver/physics/waveform.hpp"
 
 #include <catch2/catch.hpp>
 
@@ -18,7 +18,7 @@ const std::string minimal = std::string(HEATBEAD_SOURCE_DIR) + "/tests/cases/min
 Case with(std::vector<std::string> sets) {
     std::vector<Override> o;
     for (const auto& s : sets) o.push_back(parse_override(s));
-    return read_case(minimal, o).value;
+    return load_case(minimal, o).value;
 }
 
 bool warns(const Case& c, const std::string& text) {
@@ -53,7 +53,7 @@ TEST_CASE("deposited area and the fillet it fills", "[procedure]") {
     // equal-leg flat fillet l²/2 = A → l = √(2A) = 7.520 mm.
     const Case c = with({"procedure.wire_diameter=1.2", "procedure.wire_feed=9", "procedure.travel_speed=6",
                          "bead.leg_flange=7.5"});
-    const auto d = deposition(c);
+    const auto d = deposition(weld_setup(c));
     REQUIRE(d);
     CHECK(d->area * 1e6 == Approx(std::numbers::pi * 0.36 * 150 / 6).epsilon(1e-12));
     CHECK(d->equal_leg * 1e3 == Approx(7.5199).epsilon(1e-4));
@@ -120,14 +120,14 @@ TEST_CASE("waveform heat input from the instantaneous power (ISO/TR 18491)", "[p
     CHECK(m.voltage * m.current == Approx(3552.5).epsilon(1e-12));
     // The same period from a case's recorded file: heat input k·P/v = 0.8·4190/5 = 670.4 J/mm.
     const std::string pulsed = std::string(HEATBEAD_SOURCE_DIR) + "/tests/cases/pulsed_waveform.toml";
-    const Case c = read_case(pulsed, {}).value;
+    const Case c = load_case(pulsed, {}).value;
     REQUIRE(c.procedure.instantaneous_power);
     CHECK(electrical_power(c.procedure) == Approx(4190).epsilon(1e-12));
     CHECK(heat_input(c.procedure) * 1e-3 == Approx(670.4).epsilon(1e-12));
     CHECK(arc_energy(c.procedure) * 1e-3 == Approx(838).epsilon(1e-12));
     // A meter's energy over a weld length (ASME IX QW-409.1): 50 kJ over 100 mm is 500 J/mm of arc
     // energy, 400 J/mm of heat input with k = 0.8, whatever the travel speed.
-    const Case meter = read_case(pulsed, {{"procedure.waveform.samples", "\"\""},
+    const Case meter = load_case(pulsed, {{"procedure.waveform.samples", "\"\""},
                                           {"procedure.waveform.energy", "\"50 kJ\""},
                                           {"procedure.waveform.weld_length", "100"}})
                            .value;
@@ -147,7 +147,7 @@ TEST_CASE("spray's source is deeper and more concentrated than short-circuit's f
     const double arc = 6.0 / std::numbers::sqrt2 * 1e-3;
     CHECK(sc.source.depth == Approx(arc).epsilon(1e-12));
     CHECK(sc.source.half_width == Approx(arc).epsilon(1e-12));
-    const double f = droplet_heat_share(spray);
+    const double f = droplet_heat_share(weld_setup(spray));
     CHECK(spray.source.half_width == Approx(std::sqrt((1 - f) * arc * arc + f * 2.4e-3 * 2.4e-3)).epsilon(1e-12));
     CHECK(spray.source.depth == Approx(arc * std::sqrt(1 + 3 * f)).epsilon(1e-12));
     CHECK(spray.source.depth > 1.3 * sc.source.depth);

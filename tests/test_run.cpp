@@ -12,9 +12,9 @@
 //    joint.hpp, material.hpp), checked against the grid's own axes.
 #include "mesh/grid.hpp"
 #include "mesh/solid_cells.hpp"
-#include "solver/case_reader.hpp"
-#include "solver/run_setup.hpp"
-#include "solver/simulation.hpp"
+#include "solver/case/case_reader.hpp"
+#include "solver/studies/run_setup.hpp"
+#include "solver/numerics/simulation.hpp"
 
 #include "tests/temp_folder.hpp"
 
@@ -49,7 +49,7 @@ LoadedCase coarse_case(const std::vector<Override>& extra, const std::string& pa
                             {"joint.length", "40"},
                             {"procedure.arc_efficiency", "0.8"}};
     o.insert(o.end(), extra.begin(), extra.end());
-    return read_case(path, o);
+    return load_case(path, o);
 }
 
 // What the progress callback reports after each accepted step.

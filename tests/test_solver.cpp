@@ -3,8 +3,9 @@
 // double-ellipsoid solution), convergence in space and time, and energy conservation.
 #include "mesh/grading.hpp"
 #include "post/cross_section.hpp"
-#include "solver/integrators.hpp"
-#include "solver/simulation.hpp"
+#include "solver/numerics/integrators.hpp"
+#include "solver/numerics/simulation.hpp"
+#include "solver/studies/run_setup.hpp"
 #include "tests/analytic/conduction_1d.hpp"
 #include "tests/analytic/moving_sources.hpp"
 #include "tests/moving_source_block.hpp"
@@ -192,6 +193,7 @@ TEST_CASE("peaks and t8/5 match the transient double-ellipsoid solution", "[solv
     MovingSourceRun run(3e-3, 3e-3, 3e-3, 6e-3, 0.5e-3);
     const Material m = constant_material(run.k, run.rho, run.c);
     auto sim = run.simulation(m, "rkl2", 450, 40);
+    const RecordedHistory recorded = record_history(*sim, 20);
     const std::vector<std::array<double, 3>> wanted{{30e-3, 5e-3, 0}, {30e-3, 4e-3, -3e-3}, {40e-3, 0, -5e-3},
                                                    {40e-3, 5e-3, -1e-3}};
     for (std::size_t i = 0; i < wanted.size(); ++i) {
@@ -219,7 +221,7 @@ TEST_CASE("peaks and t8/5 match the transient double-ellipsoid solution", "[solv
     const double level = 1200;
     const std::size_t slice = static_cast<std::size_t>(
         std::upper_bound(run.grid.x.faces.begin(), run.grid.x.faces.end(), 35e-3) - run.grid.x.faces.begin() - 1);
-    const auto lines = post::isolines(run.grid, sim->cells(), sim->history().peak(), slice, level);
+    const auto lines = post::isolines(run.grid, sim->cells(), recorded.history->peak(), slice, level);
     REQUIRE_FALSE(lines.empty());
     std::size_t checked = 0;
     for (const auto& line : lines) {
@@ -245,12 +247,13 @@ TEST_CASE("energy is conserved and results do not depend on the thread count", "
     for (int threads : {1, 2}) {
         omp_set_num_threads(threads);
         auto sim = run.simulation(m, "rkl2", 400, 60);
+        const RecordedHistory recorded = record_history(*sim, 20);
         std::atomic<bool> stop{false};
         const RunResult r = sim->run(stop);
         INFO("balance " << r.energy.error());
         CHECK(std::abs(r.energy.error()) < 1e-6);
         CHECK(r.energy.deposited == Approx(r.energy.arc).epsilon(1e-9));
-        peaks.push_back(sim->history().peak());
+        peaks.push_back(recorded.history->peak());
     }
     omp_set_num_threads(omp_get_num_procs());
     double worst = 0;

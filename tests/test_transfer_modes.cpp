@@ -7,10 +7,10 @@
 // face is flatter and the short-circuit face more convex.
 #include "mesh/grid.hpp"
 #include "post/cross_section.hpp"
-#include "solver/case_reader.hpp"
-#include "solver/run_analysis.hpp"
-#include "solver/run_files.hpp"
-#include "solver/run_setup.hpp"
+#include "solver/case/case_reader.hpp"
+#include "solver/studies/run_analysis.hpp"
+#include "solver/app/run_files.hpp"
+#include "solver/studies/run_setup.hpp"
 
 #include <catch2/catch.hpp>
 
@@ -31,7 +31,7 @@ post::CrossSection run_section(const Case& c) {
     PreparedRun run = prepare_run(c, grid, m);
     std::atomic<bool> stop{false};
     REQUIRE(run.sim->run(stop).completed);
-    return post::measure_cross_section(c.joint, grid, run.sim->cells(), run.sim->history().peak(), c.output.station, 1,
+    return post::measure_cross_section(c.joint, grid, run.sim->cells(), run.history().peak(), c.output.station, 1,
                                        section_levels(c));
 }
 
@@ -50,8 +50,8 @@ double face_bulge(const mesh::JointGeometry& j) {
 }  // namespace
 
 TEST_CASE("spray penetrates deeper and further past the root than short-circuit transfer", "[reference][slow]") {
-    const Case sc = read_case(cases_dir + "short_circuit_half_inch.toml").value;
-    const Case spray = read_case(cases_dir + "spray_half_inch.toml").value;
+    const Case sc = load_case(cases_dir + "short_circuit_half_inch.toml").value;
+    const Case spray = load_case(cases_dir + "spray_half_inch.toml").value;
     const auto a = run_section(sc), b = run_section(spray);
     INFO("short-circuit: flange " << a.penetration_flange * 1e3 << " mm, past root "
                                   << (a.actual_throat - a.design_throat) * 1e3 << " mm; spray: flange "
@@ -66,8 +66,8 @@ TEST_CASE("spray penetrates deeper and further past the root than short-circuit 
 TEST_CASE("the spray bead's face is flatter than the short-circuit bead's", "[reference]") {
     // A property of the bead shapes the cases ask for, as the report draws them: the face's largest
     // offset from the toe-to-toe chord is the convexity (0.8 mm short-circuit, 0.3 mm spray).
-    const Case sc = read_case(cases_dir + "short_circuit_half_inch.toml").value;
-    const Case spray = read_case(cases_dir + "spray_half_inch.toml").value;
+    const Case sc = load_case(cases_dir + "short_circuit_half_inch.toml").value;
+    const Case spray = load_case(cases_dir + "spray_half_inch.toml").value;
     CHECK(face_bulge(sc.joint) == Approx(0.8e-3).epsilon(1e-3));
     CHECK(face_bulge(spray.joint) == Approx(0.3e-3).epsilon(1e-3));
     CHECK(face_bulge(spray.joint) < face_bulge(sc.joint));

@@ -10,7 +10,7 @@
 //  - SI prefixes k = 1e3, M = 1e6, G = 1e9 (SI Brochure) and binary prefixes Ki = 2^10, Mi = 2^20,
 //    Gi = 2^30 (IEC 80000-13);
 //  - percent: 1 % = 0.01, NIST SP 811.
-#include "solver/units.hpp"
+#include "solver/core/units.hpp"
 
 #include <catch2/catch.hpp>
 

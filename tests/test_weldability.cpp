@@ -1,9 +1,9 @@
 // Carbon equivalents, HAZ hardness and the EN 1011-2 preheat formula against values worked by
 // hand from the published formulas (shared REFERENCES check values 4, 5 and 10, and the hand
 // computations written beside each check).
-#include "solver/carbon_equivalent.hpp"
-#include "solver/en1011_preheat.hpp"
-#include "solver/haz_hardness.hpp"
+#include "solver/weldability/carbon_equivalent.hpp"
+#include "solver/weldability/en1011_preheat.hpp"
+#include "solver/weldability/haz_hardness.hpp"
 
 #include <catch2/catch.hpp>
 

@@ -1,0 +1,193 @@
+#include "solver/app/check.hpp"
+
+#include "mesh/grid.hpp"
+#include "solver/studies/preheat_search.hpp"
+#include "solver/studies/run_setup.hpp"
+
+#include <algorithm>
+#include <cmath>
+#include <cstdarg>
+#include <cstdio>
+
+namespace heatbead {
+
+const char* const planning_caution =
+    "Predictions are estimates for planning. Fusion, soundness, hardness and preheat are proven by "
+    "procedure qualification (macro-etch, hardness survey) under the governing welding code.";
+
+namespace {
+
+std::string vformat(const char* format, va_list args) {
+    char buf[512];
+    std::vsnprintf(buf, sizeof buf, format, args);
+    return buf;
+}
+
+std::string fmt(const char* format, ...) {
+    va_list args;
+    va_start(args, format);
+    std::string s = vformat(format, args);
+    va_end(args);
+    return s;
+}
+
+// One line of the report: fmt() plus the newline.
+template <class... Args>
+std::string line(const char* format, Args... args) {
+    return fmt(format, args...) + "\n";
+}
+
+std::string human_bytes(double b) {
+    char buf[32];
+    if (b >= 1e9) std::snprintf(buf, sizeof buf, "%.2f GB", b / 1e9);
+    else std::snprintf(buf, sizeof buf, "%.0f MB", b / 1e6);
+    return buf;
+}
+
+std::string human_seconds(double s) {
+    char buf[32];
+    if (s < 120) std::snprintf(buf, sizeof buf, "%.0f s", s);
+    else if (s < 7200) std::snprintf(buf, sizeof buf, "%.0f min", s / 60);
+    else std::snprintf(buf, sizeof buf, "%.1f h", s / 3600);
+    return buf;
+}
+
+std::string_view face_word(mesh::FaceShape f) {
+    return f == mesh::FaceShape::convex ? "convex" : f == mesh::FaceShape::concave ? "concave" : "flat";
+}
+
+nlohmann::json q(double value, const char* unit) { return {{"value", value}, {"unit", unit}}; }
+
+}  // namespace
+
+CheckReport make_check_report(const Case& c) {
+    CheckReport r;
+    r.c = &c;
+    const auto& p = c.procedure;
+    const auto& j = c.joint;
+    r.arc_energy = arc_energy(p);
+    r.heat_input = heat_input(p);
+    r.net_power = net_power(p);
+    r.bead_area = j.sides * mesh::fillet_area(j.leg_flange, j.leg_web, j.face, j.convexity);
+    r.design_throat = j.leg_flange * j.leg_web / std::hypot(j.leg_flange, j.leg_web);
+    r.deposition = deposition(weld_setup(c));
+    const mesh::Grid grid = mesh::build_grid(j, c.grid);
+    r.nx = grid.x.cells(), r.ny = grid.y.cells(), r.nz = grid.z.cells();
+    r.cells = grid.cells(), r.solid_cells = grid.solid_cells(), r.weld_cells = grid.weld_cells();
+    r.h_min = std::min({grid.x.min_width(), grid.y.min_width(), grid.z.min_width()});
+    r.h_max = std::max({grid.x.max_width(), grid.y.max_width(), grid.z.max_width()});
+    r.max_ratio = std::max({grid.x.max_ratio(), grid.y.max_ratio(), grid.z.max_ratio()});
+    r.memory = run_memory_bytes(grid);
+    r.estimate = estimate_run(c, grid, make_material(c.base));
+    if (c.base.composition) r.carbon_equivalents = carbon_equivalents(*c.base.composition);
+    if (c.base.composition && c.filler.diffusible_hydrogen) r.standard_preheat = en1011_method_b(standard_preheat_input(c));
+    return r;
+}
+
+std::string to_text(const CheckReport& r) {
+    const Case& c = *r.c;
+    const auto& j = c.joint;
+    const auto& p = c.procedure;
+    std::string out = line("heatbead check  %s", c.file.c_str());
+    out += line("Joint       tee: flange %.1f x %.0f mm, web %.1f x %.0f mm, weld %.0f mm, %s, root gap %.1f mm",
+                j.flange_thickness * 1e3, j.flange_width * 1e3, j.web_thickness * 1e3, j.web_height * 1e3,
+                j.weld_length * 1e3, j.sides == 2 ? "both sides" : "one side", j.root_gap * 1e3);
+    out += line("Bead        legs %.1f mm (flange) x %.1f mm (web), %s face; area %.1f mm2, design throat %.2f mm",
+                j.leg_flange * 1e3, j.leg_web * 1e3, std::string(face_word(j.face)).c_str(), r.bead_area * 1e6,
+                r.design_throat * 1e3);
+    std::string wire = p.wire_diameter > 0 ? fmt("%.1f mm wire", p.wire_diameter * 1e3) : "no wire data";
+    if (p.wire_feed_speed) wire += fmt(" at %.1f m/min", *p.wire_feed_speed * 60);
+    out += line("Procedure   %s %s, %s, %.0f A, %.1f V, %.2f mm/s, %s", std::string(to_string(p.process)).c_str(),
+                std::string(to_string(p.transfer)).c_str(), wire.c_str(), p.current,
+                p.voltage, p.travel_speed * 1e3, std::string(to_string(p.position)).c_str());
+    out += line("Heat input  %.3f kJ/mm = efficiency %.2f x arc energy %.3f kJ/mm (EN 1011-1); net power %.0f W",
+                r.heat_input * 1e-6, r.net_power / electrical_power(p), r.arc_energy * 1e-6, r.net_power);
+    out += line("            efficiency: %s; power: %s", p.arc_efficiency_source.c_str(), p.power_basis.c_str());
+    if (r.deposition) {
+        const auto& d = *r.deposition;
+        out += line("Deposition  %.1f mm2 per length = equal-leg fillet %.1f mm (asked %.1f mm, %+.0f %%)",
+                    d.area * 1e6, d.equal_leg * 1e3, d.asked_leg * 1e3, d.difference * 100);
+    } else {
+        out += line("Deposition  not computed: needs wire_feed and wire_diameter");
+    }
+    out += line("Source      Goldak a %.1f, b %.1f, c_f %.1f, c_r %.1f mm (%s)", c.source.half_width * 1e3,
+                c.source.depth * 1e3, c.source.front_length * 1e3, c.source.rear_length * 1e3, c.source.rule.c_str());
+    out += line("Grid        %zu x %zu x %zu = %.2f M cells, %.2f M solid (%.0f k weld); spacing %.2f-%.2f mm, "
+                "growth <= %.3f",
+                r.nx, r.ny, r.nz, r.cells / 1e6, r.solid_cells / 1e6, r.weld_cells / 1e3, r.h_min * 1e3,
+                r.h_max * 1e3, r.max_ratio);
+    out += line("Memory      about %s (limit %s)", human_bytes(r.memory).c_str(), human_bytes(c.memory_limit).c_str());
+    out += line("Run (rough) %.0f s simulated; explicit step %.2f ms -> %.3g steps; about %s at an assumed %.1e "
+                "cell updates/s",
+                r.estimate.simulated_time, r.estimate.explicit_step * 1e3, r.estimate.steps,
+                human_seconds(r.estimate.seconds).c_str(), assumed_cell_updates_per_second);
+    out += line("Temperatures preheat %.0f degC, interpass %.0f degC, ambient %.0f degC; stop at %.0f degC",
+                c.temperatures.preheat, c.temperatures.interpass, c.temperatures.ambient, c.solver.stop_temperature);
+    if (const auto& ce = r.carbon_equivalents) {
+        out += line("Steel       CE(IIW) %.3f, Pcm %.3f, CEN %.3f, CET %.3f", ce->iiw, ce->pcm, ce->cen, ce->cet);
+    }
+    if (const auto& sp = r.standard_preheat) {
+        out += line("Preheat     EN 1011-2 method B: %.0f degC%s (heatbead preheat finds it from the HAZ)", sp->formula,
+                    sp->outside_validity.empty() ? "" : ", inputs outside its validity");
+    }
+    if (!c.warnings.empty()) {
+        out += "Warnings\n";
+        for (const auto& w : c.warnings) out += "  - " + w + "\n";
+    }
+    out += line("Caution     %s", planning_caution);
+    return out;
+}
+
+nlohmann::json to_json(const CheckReport& r) {
+    const Case& c = *r.c;
+    const auto& p = c.procedure;
+    nlohmann::json out;
+    out["case"] = c.file;
+    out["heat_input"] = q(r.heat_input * 1e-6, "kJ/mm");
+    out["arc_energy"] = q(r.arc_energy * 1e-6, "kJ/mm");
+    out["net_power"] = q(r.net_power, "W");
+    out["arc_efficiency"] = {{"value", r.net_power / electrical_power(p)}, {"source", p.arc_efficiency_source}};
+    out["electrical_power"] = {{"value", electrical_power(p)}, {"unit", "W"}, {"basis", p.power_basis}};
+    out["bead_area"] = q(r.bead_area * 1e6, "mm2");
+    out["design_throat"] = q(r.design_throat * 1e3, "mm");
+    if (r.deposition) {
+        out["deposition"] = {{"area", q(r.deposition->area * 1e6, "mm2")},
+                             {"equal_leg", q(r.deposition->equal_leg * 1e3, "mm")},
+                             {"asked_leg", q(r.deposition->asked_leg * 1e3, "mm")},
+                             {"difference", q(r.deposition->difference * 100, "%")}};
+    }
+    out["source"] = {{"half_width", q(c.source.half_width * 1e3, "mm")},
+                     {"depth", q(c.source.depth * 1e3, "mm")},
+                     {"front_length", q(c.source.front_length * 1e3, "mm")},
+                     {"rear_length", q(c.source.rear_length * 1e3, "mm")},
+                     {"rule", c.source.rule}};
+    out["grid"] = {{"cells_x", r.nx},
+                   {"cells_y", r.ny},
+                   {"cells_z", r.nz},
+                   {"cells", r.cells},
+                   {"solid_cells", r.solid_cells},
+                   {"weld_cells", r.weld_cells},
+                   {"finest", q(r.h_min * 1e3, "mm")},
+                   {"coarsest", q(r.h_max * 1e3, "mm")},
+                   {"max_growth", r.max_ratio},
+                   {"memory", q(r.memory, "B")},
+                   {"memory_limit", q(c.memory_limit, "B")}};
+    out["estimate"] = {{"simulated_time", q(r.estimate.simulated_time, "s")},
+                       {"explicit_step", q(r.estimate.explicit_step, "s")},
+                       {"explicit_steps", r.estimate.steps},
+                       {"run_time", q(r.estimate.seconds, "s")},
+                       {"assumed_cell_updates_per_second", assumed_cell_updates_per_second}};
+    if (const auto& ce = r.carbon_equivalents) {
+        out["carbon_equivalents"] = {{"CE_IIW", ce->iiw}, {"Pcm", ce->pcm}, {"CEN", ce->cen}, {"CET", ce->cet}};
+    }
+    if (const auto& sp = r.standard_preheat) {
+        out["standard_preheat"] = {{"method", "EN 1011-2:2001 Annex C.3 method B"},
+                                   {"preheat", q(sp->formula, "degC")},
+                                   {"outside_validity", sp->outside_validity}};
+    }
+    out["warnings"] = c.warnings;
+    out["caution"] = planning_caution;
+    return out;
+}
+
+}  // namespace heatbead

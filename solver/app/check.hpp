@@ -1,0 +1,45 @@
+// `heatbead check`: the derived quantities a welding engineer looks at before any run.
+#pragma once
+
+#include "solver/weldability/carbon_equivalent.hpp"
+#include "solver/case/case.hpp"
+#include "solver/weldability/en1011_preheat.hpp"
+#include "solver/physics/procedure.hpp"
+#include "solver/numerics/run_estimate.hpp"
+
+#include <nlohmann/json.hpp>
+
+#include <optional>
+#include <string>
+
+namespace heatbead {
+
+struct CheckReport {
+    const Case* c = nullptr;
+    double arc_energy = 0;   // J/m
+    double heat_input = 0;   // J/m
+    double net_power = 0;    // W
+    double bead_area = 0;    // m² of all beads asked for
+    double design_throat = 0;  // m, root to the toe-to-toe line
+    std::optional<Deposition> deposition;
+    // Grid
+    std::size_t nx = 0, ny = 0, nz = 0, cells = 0, solid_cells = 0, weld_cells = 0;
+    double h_min = 0, h_max = 0, max_ratio = 0;
+    double memory = 0;  // bytes
+    RunEstimate estimate;
+    // With a base-metal composition: its carbon equivalents; with the filler's hydrogen too, the
+    // EN 1011-2 method B preheat (a quick look before `heatbead preheat`).
+    std::optional<CarbonEquivalents> carbon_equivalents;
+    std::optional<StandardPreheat> standard_preheat;
+};
+
+CheckReport make_check_report(const Case& c);
+// One screen of text.
+std::string to_text(const CheckReport& r);
+// The same figures as JSON, each with its unit.
+nlohmann::json to_json(const CheckReport& r);
+
+// The caution shown wherever results could be taken as a qualified procedure.
+extern const char* const planning_caution;
+
+}  // namespace heatbead

@@ -1,0 +1,438 @@
+#include "solver/app/compare_command.hpp"
+
+#include "solver/app/interrupt.hpp"
+
+#include "post/atomic_file.hpp"
+#include "post/compare_report.hpp"
+#include "solver/core/exit_codes.hpp"
+#include "solver/core/parallel_tasks.hpp"
+#include "solver/studies/preheat_search.hpp"
+#include "solver/physics/procedure.hpp"
+#include "solver/studies/run_analysis.hpp"
+#include "solver/app/run_command.hpp"
+#include "solver/app/run_files.hpp"
+#include "solver/studies/run_setup.hpp"
+
+#include <nlohmann/json.hpp>
+
+#include <algorithm>
+#include <chrono>
+#include <cmath>
+#include <csignal>
+#include <cstdio>
+#include <filesystem>
+#include <map>
+#include <memory>
+#include <omp.h>
+#include <thread>
+
+namespace heatbead {
+
+namespace {
+
+const char* const compare_caution =
+    "Estimates for planning, not a qualified procedure. Which procedure fuses the root and both plates, and at "
+    "what preheat, is proven by procedure qualification (macro-etch, hardness survey) under the governing welding "
+    "code; the source shapes are rules of thumb until calibrated against a macro-section.";
+
+constexpr double nan = std::numeric_limits<double>::quiet_NaN();
+
+std::string fmt(const char* format, double v) {
+    if (!std::isfinite(v)) return "n/a";
+    char buf[64];
+    std::snprintf(buf, sizeof buf, format, v);
+    return buf;
+}
+
+// One case's run and what it means.
+struct Outcome {
+    std::string name;
+    const Case* c = nullptr;
+    RunResult result;
+    RunAnalysis analysis;
+    post::Summary summary;
+    double wall = 0;
+    std::optional<PreheatAnswer> preheat;
+};
+
+// Figures the table and the words use, NaN where not available.
+struct Figures {
+    double heat_input, deposited, leg_flange, leg_web, pen_flange, pen_web, past_root, fused, dilution;
+    double haz_flange, haz_web, t85_lo, t85_hi, rate_540, peak_lo, peak_hi, hardness, preheat, standard;
+    bool root_fused;
+};
+
+Figures figures_of(const Outcome& o) {
+    const auto& x = o.analysis.section;
+    const auto& c = *o.c;
+    Figures f{};
+    f.heat_input = heat_input(c.procedure) * 1e-6;
+    const auto d = deposition(weld_setup(c));
+    f.deposited = d ? d->area * 1e6 : nan;
+    f.leg_flange = x.fused_leg_flange * 1e3, f.leg_web = x.fused_leg_web * 1e3;
+    f.pen_flange = x.penetration_flange * 1e3, f.pen_web = x.penetration_web * 1e3;
+    // How far the fusion reaches past the root corner along the bisector (actual − design throat).
+    f.past_root = (x.actual_throat - x.design_throat) * 1e3;
+    f.fused = x.fused_area * 1e6, f.dilution = x.dilution * 100;
+    f.haz_flange = x.haz_width_flange * 1e3, f.haz_web = x.haz_width_web * 1e3;
+    f.root_fused = x.root_fused;
+    f.t85_lo = f.t85_hi = f.rate_540 = f.peak_lo = f.peak_hi = nan;
+    for (const auto& p : o.analysis.probes) {
+        if (p.name.rfind("haz_", 0) != 0) continue;
+        const auto& g = p.figures;
+        const auto widen = [](double& lo, double& hi, double v) {
+            if (!std::isfinite(v)) return;
+            lo = std::isnan(lo) ? v : std::min(lo, v);
+            hi = std::isnan(hi) ? v : std::max(hi, v);
+        };
+        double ignored = nan;
+        widen(f.t85_lo, f.t85_hi, g.t8_5);
+        widen(ignored, f.rate_540, g.rate_540);
+        widen(f.peak_lo, f.peak_hi, g.peak);
+    }
+    const ProbeResult* hardest = o.analysis.hardest();
+    f.hardness = hardest ? hardest->hardness : nan;
+    f.preheat = o.preheat && o.preheat->found ? *o.preheat->found : nan;
+    f.standard = o.preheat ? o.preheat->standard.formula : nan;
+    return f;
+}
+
+// The table: one row per quantity, one cell per case.
+std::vector<std::pair<std::string, std::vector<std::string>>> table(const std::vector<Outcome>& outcomes) {
+    std::vector<std::pair<std::string, std::vector<std::string>>> rows;
+    const auto row = [&](std::string label, auto cell) {
+        std::vector<std::string> cells;
+        for (const auto& o : outcomes) cells.push_back(cell(o, figures_of(o)));
+        rows.emplace_back(std::move(label), std::move(cells));
+    };
+    row("procedure", [](const Outcome& o, const Figures&) {
+        const auto& p = o.c->procedure;
+        return std::string(to_string(p.process)) + (p.transfer == Transfer::none ? "" : " " + std::string(to_string(p.transfer))) +
+               ", " + fmt("%.0f A", p.current) + ", " + fmt("%.1f V", p.voltage) + ", " + fmt("%.1f mm/s", p.travel_speed * 1e3);
+    });
+    row("heat input", [](const Outcome&, const Figures& f) { return fmt("%.3f kJ/mm", f.heat_input); });
+    row("deposited area", [](const Outcome&, const Figures& f) { return fmt("%.1f mm2", f.deposited); });
+    row("legs asked (flange x web)", [](const Outcome& o, const Figures&) {
+        return fmt("%.1f", o.c->joint.leg_flange * 1e3) + " x " + fmt("%.1f mm", o.c->joint.leg_web * 1e3);
+    });
+    row("fused legs (flange x web)", [](const Outcome&, const Figures& f) { return fmt("%.1f", f.leg_flange) + " x " + fmt("%.1f mm", f.leg_web); });
+    row("penetration into flange", [](const Outcome&, const Figures& f) { return fmt("%.2f mm", f.pen_flange); });
+    row("penetration into web", [](const Outcome&, const Figures& f) { return fmt("%.2f mm", f.pen_web); });
+    row("fusion past the root", [](const Outcome&, const Figures& f) { return fmt("%.2f mm", f.past_root); });
+    row("root fused", [](const Outcome&, const Figures& f) { return std::string(f.root_fused ? "yes" : "NO"); });
+    row("fused area, dilution", [](const Outcome&, const Figures& f) { return fmt("%.1f mm2", f.fused) + ", " + fmt("%.0f %%", f.dilution); });
+    row("HAZ width (flange, web)", [](const Outcome&, const Figures& f) { return fmt("%.2f", f.haz_flange) + ", " + fmt("%.2f mm", f.haz_web); });
+    row("t8/5 at the HAZ probes", [](const Outcome&, const Figures& f) { return fmt("%.2f", f.t85_lo) + "-" + fmt("%.2f s", f.t85_hi); });
+    row("fastest cooling at 540 degC", [](const Outcome&, const Figures& f) { return fmt("%.0f K/s", f.rate_540); });
+    row("peak at the HAZ probes", [](const Outcome&, const Figures& f) { return fmt("%.0f", f.peak_lo) + "-" + fmt("%.0f degC", f.peak_hi); });
+    row("HAZ hardness (max)", [](const Outcome&, const Figures& f) { return fmt("%.0f HV", f.hardness); });
+    row("lowest preheat (simulation)", [](const Outcome& o, const Figures& f) {
+        if (!o.preheat) return std::string("not searched");
+        return o.preheat->found ? fmt("%.0f degC", f.preheat) : "none up to " + fmt("%.0f degC", o.c->preheat_search.highest);
+    });
+    row("preheat EN 1011-2 method B", [](const Outcome& o, const Figures& f) {
+        return o.preheat ? fmt("%.0f degC", f.standard) : std::string("not computed");
+    });
+    row("run time", [](const Outcome& o, const Figures&) { return fmt("%.1f s", o.wall); });
+    return rows;
+}
+
+std::string percent_more(double a, double b) { return fmt("%.0f %%", 100 * (a / b - 1)); }
+
+// The differences of each case against the first, in words a welder uses.
+std::vector<std::string> differences(const std::vector<Outcome>& outcomes) {
+    std::vector<std::string> out;
+    const Figures base = figures_of(outcomes.front());
+    const std::string& a = outcomes.front().name;
+    const bool all_root = std::all_of(outcomes.begin(), outcomes.end(), [](const Outcome& o) { return o.analysis.section.root_fused; });
+    const bool no_root = std::none_of(outcomes.begin(), outcomes.end(), [](const Outcome& o) { return o.analysis.section.root_fused; });
+    if (all_root) out.push_back(outcomes.size() == 2 ? "Both fuse the root." : "All fuse the root.");
+    if (no_root) out.push_back("None fuses the root.");
+    for (std::size_t i = 1; i < outcomes.size(); ++i) {
+        const Figures f = figures_of(outcomes[i]);
+        const std::string& b = outcomes[i].name;
+        const auto deeper = [&](double fb, double fa, const char* where) {
+            const double d = fb - fa;
+            if (!std::isfinite(d) || std::abs(d) < 0.05) return std::string();
+            return b + " fuses " + fmt("%.1f mm", std::abs(d)) + (d > 0 ? " deeper " : " less deep ") + where + " than " + a;
+        };
+        for (const auto& s : {deeper(f.pen_flange, base.pen_flange, "into the flange"),
+                              deeper(f.pen_web, base.pen_web, "into the web"),
+                              deeper(f.past_root, base.past_root, "past the root")}) {
+            if (!s.empty()) out.push_back(s + ".");
+        }
+        if (!all_root && !no_root && f.root_fused != base.root_fused) {
+            out.push_back((f.root_fused ? b : a) + " fuses the root; " + (f.root_fused ? a : b) + " does not.");
+        }
+        if (std::abs(f.heat_input / base.heat_input - 1) >= 0.03) {
+            out.push_back(b + "'s heat input is " + percent_more(std::max(f.heat_input, base.heat_input), std::min(f.heat_input, base.heat_input)) +
+                          (f.heat_input > base.heat_input ? " higher" : " lower") + " (" + fmt("%.2f", f.heat_input) + " against " +
+                          fmt("%.2f kJ/mm", base.heat_input) + ").");
+        }
+        if (std::isfinite(f.rate_540) && std::isfinite(base.rate_540) && std::abs(f.rate_540 / base.rate_540 - 1) >= 0.05) {
+            const bool b_faster = f.rate_540 > base.rate_540;
+            out.push_back((b_faster ? b : a) + "'s HAZ cools " +
+                          percent_more(std::max(f.rate_540, base.rate_540), std::min(f.rate_540, base.rate_540)) +
+                          " faster at 540 degC (t8/5 " + fmt("%.1f", b_faster ? f.t85_lo : base.t85_lo) + " against " +
+                          fmt("%.1f s", b_faster ? base.t85_lo : f.t85_lo) + ").");
+        }
+        if (std::isfinite(f.preheat) && std::isfinite(base.preheat) && f.preheat != base.preheat) {
+            out.push_back(b + " needs " + fmt("%.0f degC", std::abs(f.preheat - base.preheat)) +
+                          (f.preheat > base.preheat ? " more" : " less") + " preheat than " + a + " for the same hardness limit.");
+        }
+    }
+    return out;
+}
+
+std::vector<std::string> warnings(const std::vector<Outcome>& outcomes) {
+    std::vector<std::string> out;
+    for (const auto& o : outcomes) {
+        for (const auto& w : o.c->warnings) out.push_back(o.name + ": " + w);
+        for (const auto& [group, note] : o.summary.notes()) out.push_back(o.name + ": " + note);
+        if (std::abs(o.result.energy.error()) > 0.01) out.push_back(o.name + ": energy balance off by more than 1 %");
+    }
+    return out;
+}
+
+// The joint must be the same for every case (the bead and the procedure may differ).
+void require_same_joint(const std::vector<LoadedCase>& cases) {
+    const auto& a = cases.front().value;
+    std::vector<Diagnostic> problems;
+    for (std::size_t i = 1; i < cases.size(); ++i) {
+        const auto& b = cases[i].value;
+        const auto differ = [&](const char* key, double va, double vb, double scale, const char* unit) {
+            if (std::abs(va - vb) <= 1e-9 * std::max(1.0, std::abs(va))) return;
+            problems.push_back({b.file, std::string("joint.") + key, fmt("%.4g", vb * scale) + " " + unit,
+                                "differs from " + a.file + "'s " + fmt("%.4g", va * scale) + " " + unit +
+                                    "; compare procedures on the same joint (plates, offset, gap and sides alike)"});
+        };
+        differ("flange_thickness", a.joint.flange_thickness, b.joint.flange_thickness, 1e3, "mm");
+        differ("flange_width", a.joint.flange_width, b.joint.flange_width, 1e3, "mm");
+        differ("web_thickness", a.joint.web_thickness, b.joint.web_thickness, 1e3, "mm");
+        differ("web_height", a.joint.web_height, b.joint.web_height, 1e3, "mm");
+        differ("web_offset", a.joint.web_offset, b.joint.web_offset, 1e3, "mm");
+        differ("root_gap", a.joint.root_gap, b.joint.root_gap, 1e3, "mm");
+        differ("sides", a.joint.sides, b.joint.sides, 1, "");
+    }
+    if (!problems.empty()) throw CaseError(std::move(problems));
+}
+
+// Short names: the file stems, made unique with a number where two agree.
+std::vector<std::string> names_of(const std::vector<LoadedCase>& cases) {
+    std::vector<std::string> names;
+    std::map<std::string, int> seen;
+    for (const auto& l : cases) {
+        std::string n = std::filesystem::path(l.value.file).stem().string();
+        if (++seen[n] > 1) n += " (" + std::to_string(seen[n]) + ")";
+        names.push_back(n);
+    }
+    return names;
+}
+
+// A key for grids: cases with the same joint, bead and grid settings mesh alike.
+std::string grid_key(const Case& c) {
+    const auto& j = c.joint;
+    const auto& g = c.grid;
+    std::string key;
+    for (double v : {j.flange_thickness, j.flange_width, j.web_thickness, j.web_height, j.weld_length, j.web_offset,
+                     j.root_gap, double(j.sides), j.leg_flange, j.leg_web, double(static_cast<int>(j.face)), j.convexity,
+                     g.cross_section.finest, g.cross_section.coarsest, g.cross_section.growth, g.refine_margin,
+                     g.along_weld}) {
+        char buf[32];
+        std::snprintf(buf, sizeof buf, "%.17g ", v);
+        key += buf;
+    }
+    return key;
+}
+
+nlohmann::json to_json(const std::vector<Outcome>& outcomes, const std::vector<std::pair<std::string, std::vector<std::string>>>& rows,
+                       const std::vector<std::string>& words) {
+    nlohmann::json j;
+    j["cases"] = nlohmann::json::array();
+    for (const auto& o : outcomes) {
+        const Figures f = figures_of(o);
+        const auto num = [](double v) { return std::isfinite(v) ? nlohmann::json(v) : nlohmann::json(nullptr); };
+        j["cases"].push_back({{"name", o.name},
+                              {"case", o.c->file},
+                              {"heat_input_kJ_per_mm", num(f.heat_input)},
+                              {"deposited_area_mm2", num(f.deposited)},
+                              {"fused_leg_flange_mm", num(f.leg_flange)},
+                              {"fused_leg_web_mm", num(f.leg_web)},
+                              {"penetration_flange_mm", num(f.pen_flange)},
+                              {"penetration_web_mm", num(f.pen_web)},
+                              {"fusion_past_root_mm", num(f.past_root)},
+                              {"root_fused", f.root_fused},
+                              {"fused_area_mm2", num(f.fused)},
+                              {"dilution_percent", num(f.dilution)},
+                              {"haz_width_flange_mm", num(f.haz_flange)},
+                              {"haz_width_web_mm", num(f.haz_web)},
+                              {"t8_5_min_s", num(f.t85_lo)},
+                              {"t8_5_max_s", num(f.t85_hi)},
+                              {"cooling_rate_540_K_per_s", num(f.rate_540)},
+                              {"haz_peak_min_degC", num(f.peak_lo)},
+                              {"haz_peak_max_degC", num(f.peak_hi)},
+                              {"haz_hardness_max_HV", num(f.hardness)},
+                              {"lowest_preheat_degC", num(f.preheat)},
+                              {"standard_preheat_degC", num(f.standard)},
+                              {"energy_balance_error", o.result.energy.error()},
+                              {"run_time_s", o.wall}});
+    }
+    j["table"] = nlohmann::json::array();
+    for (const auto& [label, cells] : rows) j["table"].push_back({{"quantity", label}, {"values", cells}});
+    j["differences"] = words;
+    j["warnings"] = warnings(outcomes);
+    j["caution"] = compare_caution;
+    return j;
+}
+
+std::string csv_cell(std::string s) {
+    if (s.find_first_of(",\"") == std::string::npos) return s;
+    std::string out = "\"";
+    for (char ch : s) out += ch == '"' ? std::string("\"\"") : std::string(1, ch);
+    return out + "\"";
+}
+
+std::string to_csv(const std::vector<Outcome>& outcomes, const std::vector<std::pair<std::string, std::vector<std::string>>>& rows) {
+    std::string out = "quantity";
+    for (const auto& o : outcomes) out += "," + csv_cell(o.name);
+    out += "\n";
+    for (const auto& [label, cells] : rows) {
+        out += csv_cell(label);
+        for (const auto& cell : cells) out += "," + csv_cell(cell);
+        out += "\n";
+    }
+    return out;
+}
+
+post::CompareReportInput report_input(const std::vector<Outcome>& outcomes,
+                                      const std::vector<std::pair<std::string, std::vector<std::string>>>& rows,
+                                      const std::vector<std::string>& words) {
+    post::CompareReportInput r;
+    r.title = "Procedures compared:";
+    for (const auto& o : outcomes) r.title += " " + o.name + (&o == &outcomes.back() ? "" : " /");
+    r.created = now_utc();
+    r.plates = plate_outlines(outcomes.front().c->joint);
+    for (const auto& o : outcomes) {
+        post::ComparedProcedure p;
+        p.name = o.name;
+        p.case_file = o.c->file;
+        p.bead = bead_outline(o.c->joint);
+        p.fusion_line = curves(o.analysis.section.fusion_line);
+        p.haz_line = curves(o.analysis.section.ac1_line);
+        // The cycle 0.5 mm beyond the fusion line in the flange: the same place in every procedure.
+        for (const auto& probe : o.analysis.probes) {
+            if (probe.name.rfind("haz_flange_0.5", 0) == 0) p.cycle = {probe.name, probe.time, probe.temperature};
+        }
+        r.procedures.push_back(std::move(p));
+    }
+    r.rows = rows;
+    r.differences = words;
+    r.warnings = warnings(outcomes);
+    r.caution = compare_caution;
+    return r;
+}
+
+}  // namespace
+
+int compare_command(const std::vector<LoadedCase>& cases, const CompareOptions& options) {
+    catch_interrupts();
+    if (cases.size() < 2) throw std::invalid_argument("compare needs at least two case files");
+    require_same_joint(cases);
+    const std::vector<std::string> names = names_of(cases);
+    const int cores = static_cast<int>(std::max(1u, std::thread::hardware_concurrency()));
+    const int jobs = options.jobs > 0 ? options.jobs : cores;
+    const int threads = options.threads > 0 ? options.threads : std::max(1, cores / jobs);
+    const std::filesystem::path out(options.out_dir);
+
+    // Grids and materials once per distinct joint and grid (and base metal).
+    std::map<std::string, std::unique_ptr<mesh::Grid>> grids;
+    std::vector<std::unique_ptr<Material>> materials;
+    for (const auto& l : cases) {
+        auto& g = grids[grid_key(l.value)];
+        if (!g) g = std::make_unique<mesh::Grid>(mesh::build_grid(l.value.joint, l.value.grid));
+        materials.push_back(std::make_unique<Material>(make_material(l.value.base)));
+    }
+    if (!options.quiet) {
+        std::printf("heatbead compare  %zu procedures, %zu grid%s, %d run%s at a time\n", cases.size(), grids.size(),
+                    grids.size() == 1 ? "" : "s", jobs, jobs == 1 ? "" : "s");
+        std::fflush(stdout);
+    }
+    std::vector<Outcome> outcomes(cases.size());
+    for (std::size_t first = 0; first < cases.size(); first += static_cast<std::size_t>(jobs)) {
+        const std::size_t last = std::min(cases.size(), first + static_cast<std::size_t>(jobs));
+        run_side_by_side(first, last, [&](std::size_t i) {
+            omp_set_num_threads(threads);
+            const Case& c = cases[i].value;
+            const auto start = std::chrono::steady_clock::now();
+            PreparedRun run = prepare_run(c, *grids.at(grid_key(c)), *materials[i]);
+            Outcome& o = outcomes[i];
+            o.name = names[i];
+            o.c = &c;
+            o.result = run.sim->run(interrupt_flag());
+            if (!o.result.completed || interrupt_flag().load()) return;
+            o.analysis = analyse_run(c, run);
+            o.wall = std::chrono::duration<double>(std::chrono::steady_clock::now() - start).count();
+            o.summary = make_summary(c, o.result, o.analysis, o.wall);
+        });
+        if (interrupt_flag().load()) break;
+        if (!options.quiet) {
+            for (std::size_t i = first; i < last; ++i) {
+                std::printf("  ran %-28s %.1f s\n", names[i].c_str(), outcomes[i].wall);
+            }
+            std::fflush(stdout);
+        }
+    }
+    try {
+        for (auto& o : outcomes) {
+            if (interrupt_flag().load()) break;
+            const Case& c = *o.c;
+            if (!options.preheat || !c.base.composition || !c.filler.diffusible_hydrogen) continue;
+            o.preheat = find_preheat(c, jobs, threads, interrupt_flag());
+            if (!options.quiet) {
+                std::printf("  preheat %-24s %s (%zu runs)\n", o.name.c_str(),
+                            o.preheat->found ? fmt("%.0f degC", *o.preheat->found).c_str() : "none found",
+                            o.preheat->trials.size());
+                std::fflush(stdout);
+            }
+        }
+    } catch (const SearchInterrupted&) {
+    }
+    if (interrupt_flag().load()) {
+        std::fprintf(stderr, "heatbead: comparison interrupted; nothing was written\n");
+        return exit_code::run_failed;
+    }
+
+    const auto rows = table(outcomes);
+    const auto words = differences(outcomes);
+    post::write_file_atomically(out / "compare.json", to_json(outcomes, rows, words).dump(2) + "\n");
+    post::write_file_atomically(out / "compare.csv", to_csv(outcomes, rows));
+    post::write_compare_report(out / "compare.html", report_input(outcomes, rows, words));
+
+    if (!options.quiet) {
+        // Columns as wide as their widest entry, so the table reads straight down.
+        std::size_t label_width = 0;
+        std::vector<std::size_t> width(names.size());
+        for (std::size_t i = 0; i < names.size(); ++i) width[i] = names[i].size() + 2;
+        for (const auto& [label, cells] : rows) {
+            label_width = std::max(label_width, label.size() + 2);
+            for (std::size_t i = 0; i < cells.size(); ++i) width[i] = std::max(width[i], cells[i].size() + 2);
+        }
+        const auto print_row = [&](const std::string& label, const std::vector<std::string>& cells) {
+            std::printf("%-*s", static_cast<int>(label_width), label.c_str());
+            for (std::size_t i = 0; i < cells.size(); ++i) std::printf("%-*s", static_cast<int>(width[i]), cells[i].c_str());
+            std::printf("\n");
+        };
+        print_row("", names);
+        for (const auto& [label, cells] : rows) print_row(label, cells);
+        for (const auto& w : words) std::printf("Difference  %s\n", w.c_str());
+        for (const auto& w : warnings(outcomes)) std::printf("Warning     %s\n", w.c_str());
+        std::printf("Files       %s, compare.csv, compare.html\n", (out / "compare.json").string().c_str());
+        std::printf("Caution     %s\n", compare_caution);
+    }
+    for (const auto& o : outcomes) {
+        if (std::abs(o.result.energy.error()) > 0.01) return exit_code::outside_validity;
+    }
+    return exit_code::ok;
+}
+
+}  // namespace heatbead

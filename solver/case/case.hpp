@@ -1,0 +1,91 @@
+// A validated case: everything one run needs, every default filled in.
+// Units are internal: SI (m, s, W, A, V, rad, J/m, W/(m2 K)), except temperatures in degrees
+// Celsius (converted to kelvin only where physics needs it, e.g. radiation) and composition in
+// mass per cent. The case-file keys behind each field are listed in cases/README.md.
+#pragma once
+
+#include "mesh/grid.hpp"
+#include "mesh/joint.hpp"
+#include "solver/physics/heat_source.hpp"
+#include "solver/physics/procedure.hpp"
+#include "solver/weldability/composition.hpp"
+
+#include <array>
+#include <optional>
+#include <string>
+#include <vector>
+
+namespace heatbead {
+
+struct MaterialSpec {
+    std::string grade;                       // free text, for reports only
+    std::string properties;                  // "carbon_steel_en1993", or a property table file
+    std::string properties_file;             // the table's path (relative to the case resolved), if any
+    double density = 7850;                   // kg/m³ (tables only; EN 1993-1-2 for the built-in)
+    double solidus = 1495, liquidus = 1540;  // °C
+    double latent_heat = 277e3;              // J/kg
+    double liquid_conductivity_factor = 1;   // k multiplier above liquidus (stand-in for pool stirring)
+    std::optional<Composition> composition;  // needed by metallurgy outputs only
+    std::optional<double> diffusible_hydrogen;  // ml/100 g deposited metal (filler only)
+};
+
+struct TemperatureSpec {
+    double preheat = 20, interpass = 20, ambient = 20;  // degC
+};
+
+struct SurfaceSpec {
+    double convection = 10;            // W/(m2 K)
+    double emissivity = 0.8;           // -
+    double contact_conductance = 1000; // W/(m2 K), web edge on flange outside the weld
+};
+
+struct SolverSpec {
+    std::string integrator = "rkl2";
+    double max_temperature_change = 500;  // K per step (twice this rejects the step)
+    double travel_per_step = 0.25;        // arc travel per step / smallest source semi-axis
+    double time_limit = 600;       // s
+    double stop_temperature = 300; // degC
+};
+
+struct OutputSpec {
+    std::vector<std::string> files;
+    double station = 0;                          // m along the weld
+    std::vector<std::array<double, 3>> probes;   // user points (x, y, z) in m
+    double snapshot_interval = 1;                // s
+};
+
+// What `heatbead preheat` searches for: the lowest preheat, in steps of `resolution`, between
+// `lowest` and `highest` at which every hardened HAZ probe stays at or below the hardness limit
+// and, where given, cools from 800 to 500 °C no faster than `min_t8_5` and stays above 100 °C for
+// at least `min_time_to_100` (time for hydrogen to diffuse out).
+struct PreheatSearchSpec {
+    double hardness_limit = 350;            // HV
+    std::optional<double> min_t8_5;         // s
+    std::optional<double> min_time_to_100;  // s
+    double lowest = 20, highest = 250;      // degC
+    double resolution = 5;                  // K
+};
+
+struct Case {
+    std::string file;  // path the case was read from
+    mesh::JointGeometry joint;
+    mesh::GridSettings grid;
+    double memory_limit = 0;  // bytes
+    MaterialSpec base, filler;
+    ProcedureSpec procedure;
+    SourceShape source;
+    TemperatureSpec temperatures;
+    SurfaceSpec surface;
+    SolverSpec solver;
+    OutputSpec output;
+    PreheatSearchSpec preheat_search;
+    std::vector<std::string> warnings;  // unusual but possible values, found while reading
+};
+
+// What the procedure rules (solver/physics/procedure.hpp) read of a case.
+inline WeldSetup weld_setup(const Case& c) {
+    return {c.joint, c.procedure, {c.base.solidus, c.base.liquidus, c.base.latent_heat, 1.0},
+            c.temperatures.ambient, c.temperatures.preheat};
+}
+
+}  // namespace heatbead

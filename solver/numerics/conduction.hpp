@@ -1,0 +1,135 @@
+// The conduction operator: the rate of change of enthalpy of every solid cell,
+//
+//     V_P dH_P/dt = Σ_faces G_f (T_N − T_P) − Σ_free G_s (T_P − T_∞) + Q_P,
+//
+// cell-centred finite volumes on the rectilinear grid (conservative: each face flux appears with
+// opposite signs in its two cells). Face conductance G_f = A_f / (Δ_P/(2k_P) + Δ_N/(2k_N) + R_c):
+// the harmonic mean of k/Δ of the two cells, plus a contact resistance R_c = 1/h_contact on
+// web–flange faces that have not fused. Free faces (void, domain ends, weld metal not yet
+// deposited) lose h_c(T − T_∞) + εσ(T⁴ − T_∞⁴), written as h_eff(T − T_∞) with
+// h_eff = h_c + εσ(T² + T_∞²)(T + T_∞) in kelvin; a free face's conductance to the surroundings
+// is G_s = A / (1/h_eff + Δ/(2k)), the surface film in series with the half cell below it.
+//
+// Conductivity, h_eff and the fused state are lagged: evaluated once a step in prepare(), from
+// the temperature at the start of the step, and held over its stages. Within a step the operator
+// is then linear in T, which is what the stability bounds of the integrators assume.
+#pragma once
+
+#include "mesh/grid.hpp"
+#include "mesh/solid_cells.hpp"
+#include "solver/physics/heat_source.hpp"
+#include "solver/physics/material.hpp"
+
+#include <array>
+#include <cstdint>
+#include <span>
+#include <vector>
+
+namespace heatbead {
+
+struct SurfaceLosses {
+    double convection = 10;             // h_c, W/(m2 K)
+    double emissivity = 0.8;            // ε
+    double ambient = 20;                // T_∞, °C
+    double contact_conductance = 1000;  // h_contact, W/(m2 K); 0 = no contact
+    // Domain faces without losses (symmetry planes, or the far faces of a body standing in for a
+    // semi-infinite one), in the order x−, x+, y−, y+, z−, z+. Faces onto void always lose.
+    std::array<bool, 6> adiabatic{};
+};
+
+// A contiguous range of cell indices [begin, end) that a step must update; cells outside it are
+// still at the initial temperature, with neighbours that are too, and need no work.
+struct CellRange {
+    std::size_t begin = 0, end = 0;
+};
+
+class ConductionOperator {
+public:
+    ConductionOperator(const mesh::Grid& grid, const mesh::SolidCells& cells, const Material& material,
+                       SurfaceLosses losses);
+
+    // Lags conductivity, face conductances, surface losses and fused contacts on the temperature
+    // `T` at the start of a step; `active` says which cells exist (weld metal not yet deposited
+    // does not). `source` is the heat the arc puts into cells during the step, in watts.
+    // `skip_temperature` is the initial temperature, or NaN to update everything; `reach` is how
+    // many cells heat can travel during the step (the number of stages).
+    void prepare(std::span<const double> T, std::span<const std::uint8_t> active,
+                 std::span<const CellPower> source, double skip_temperature, std::size_t reach);
+
+    // T from H for the active cells of the current range.
+    void temperatures(std::span<const double> H, std::span<double> T) const;
+    // dH/dt [W/m³] for the current range from the temperature field (inactive cells: 0).
+    // Returns the heat lost through free surfaces at this field [W], for the energy balance.
+    double rate(std::span<const double> T, std::span<double> dHdt) const;
+
+    // The sweep behind rate(): calls sink(c, r, active) for every cell of the range with r the
+    // rate of conduction and surface loss [W/m³] (the source is not included: see source()).
+    // Integrators fuse their update into the sink, so a stage streams memory once.
+    template <class Sink>
+    double for_each_rate(std::span<const double> T, Sink&& sink) const;
+    std::span<const CellPower> source() const { return source_; }
+
+    // Forward-Euler limit of the current (lagged) operator: min_P V_P ρc_min / Σ G.
+    double stable_step() const { return stable_step_; }
+    CellRange range() const { return range_; }
+
+    double volume(std::size_t cell) const { return dx_[cell / cells_.ns] * dy_[cell % cells_.ns] * dz_[cell % cells_.ns]; }
+    const mesh::SolidCells& cells() const { return cells_; }
+    const Material& material() const { return material_; }
+
+private:
+    const mesh::Grid& grid_;
+    const mesh::SolidCells& cells_;
+    const Material& material_;
+    SurfaceLosses losses_;
+    std::vector<double> dx_, dy_, dz_;           // widths per slice and per section cell
+    std::vector<double> end_area_;               // per section cell: dy·dz (faces at x = 0 and x = L)
+    std::vector<double> k_, gx_, gy_, gz_, gloss_;  // per cell: conductivity, + face conductances, h_eff·A_free
+    std::vector<std::uint8_t> fused_;
+    std::span<const std::uint8_t> active_;
+    std::span<const CellPower> source_;
+    CellRange range_;
+    double stable_step_ = 0;
+};
+
+template <class Sink>
+double ConductionOperator::for_each_rate(std::span<const double> T, Sink&& sink) const {
+    using mesh::no_neighbour;
+    const std::size_t nx = cells_.nx, ns = cells_.ns;
+    const std::size_t i_lo = range_.begin / ns, i_hi = range_.end / ns;
+    double lost = 0;
+#pragma omp parallel for schedule(static) reduction(+ : lost) if ((i_hi - i_lo) * ns >= mesh::parallel_min_cells)
+    for (std::size_t i = i_lo; i < i_hi; ++i) {
+        const double inv_dx = 1.0 / dx_[i];
+        const std::size_t base = i * ns;
+        for (std::size_t s = 0; s < ns; ++s) {
+            const std::size_t c = base + s;
+            if (!active_[c]) {
+                sink(c, 0.0, false);
+                continue;
+            }
+            const double tc = T[c];
+            // Inactive neighbours have zero conductance, so their (stale) T does not matter.
+            const double loss = gloss_[c] * (tc - losses_.ambient);
+            lost += loss;
+            double flow = -loss;
+            if (i + 1 < nx) flow += gx_[c] * (T[c + ns] - tc);
+            if (i > 0) flow += gx_[c - ns] * (T[c - ns] - tc);
+            const auto& nb = cells_.neighbour[s];
+            if (nb[mesh::plus_y] != no_neighbour) flow += gy_[c] * (T[base + nb[mesh::plus_y]] - tc);
+            if (nb[mesh::minus_y] != no_neighbour) {
+                const std::size_t m = base + nb[mesh::minus_y];
+                flow += gy_[m] * (T[m] - tc);
+            }
+            if (nb[mesh::plus_z] != no_neighbour) flow += gz_[c] * (T[base + nb[mesh::plus_z]] - tc);
+            if (nb[mesh::minus_z] != no_neighbour) {
+                const std::size_t m = base + nb[mesh::minus_z];
+                flow += gz_[m] * (T[m] - tc);
+            }
+            sink(c, flow * inv_dx / end_area_[s], true);
+        }
+    }
+    return lost;
+}
+
+}  // namespace heatbead

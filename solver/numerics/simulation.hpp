@@ -1,0 +1,146 @@
+// One run: the arc passes (one bead, or two with an interpass wait), then the joint cools until
+// every solid cell is below the stop temperature or the time limit is reached.
+//
+// Each step: weld metal the arc has passed is born (void → solid, molten at the liquidus; the
+// heat that took it there is the filler's steady share of the arc's net power, taken off the
+// source, so arc energy = stored + lost still holds); the source is deposited at mid-step; the operator is
+// lagged; the integrator advances H; the step is accepted if no cell changed by more than twice
+// the allowed change, else halved and retried; observers record the accepted step.
+#pragma once
+
+#include "mesh/grid.hpp"
+#include "mesh/solid_cells.hpp"
+#include "solver/numerics/conduction.hpp"
+#include "solver/physics/heat_source.hpp"
+#include "solver/numerics/integrators.hpp"
+#include "solver/physics/material.hpp"
+
+#include <array>
+#include <atomic>
+#include <functional>
+#include <memory>
+#include <optional>
+#include <string>
+#include <vector>
+
+namespace heatbead {
+
+struct StepControl {
+    double travel_fraction = 0.25;  // arc travel per step ≤ this × smallest semi-axis
+    double max_change = 500;        // K: target largest temperature change in a step (2× is rejected)
+    double max_step = 5;            // s: cap during cooling
+    double first_step = 1e-3;       // s
+};
+
+// One bead: its heat source and, for beads after the first, when it may start.
+struct Pass {
+    // The torch path of this pass when it starts at `start_time`.
+    std::function<TorchPath(double start_time)> path;
+    SourceShape shape;
+    double net_power = 0;        // W
+    // Weld metal on this side of y = web_centre (+1 or −1) is born as the arc passes; 0: none.
+    int side = 0;
+    double web_centre = 0;       // m
+    std::optional<double> wait;  // s after the previous pass ends; else wait for `interpass`
+    double interpass = 0;        // °C: start when the hottest cell has cooled to this
+};
+
+struct RunSettings {
+    double initial_temperature = 20;  // °C
+    double stop_temperature = 300;    // °C
+    double time_limit = 600;          // s
+    std::string integrator = "rkl2";
+    StepControl control;
+    bool skip_cold_blocks = true;     // only possible when initial = ambient temperature
+};
+
+struct EnergyBalance {
+    double arc = 0;        // J: net power × arc time
+    double deposited = 0;  // J the discretised source put into cells
+    double filler = 0;     // J the born weld metal brought (deposited + filler = arc)
+    double stored = 0;   // J: Σ V (H − H(T0)) over solid cells at the end
+    double lost = 0;     // J through free surfaces
+    double error() const { return arc > 0 ? (arc - stored - lost) / arc : 0.0; }
+};
+
+struct RunResult {
+    std::string stop_reason;
+    bool completed = false;   // false when interrupted
+    double end_time = 0;
+    std::size_t steps = 0, rejected = 0, stages = 0;
+    double cell_updates = 0;  // Σ stages × cells updated
+    double max_temperature = 0;
+    EnergyBalance energy;
+    std::vector<double> pass_start, pass_end;
+};
+
+struct Probe {
+    std::string name;
+    std::array<double, 3> position;
+    std::size_t cell = 0;
+    std::vector<double> time, temperature;
+};
+
+// Told of what happens to the cells as the run goes: the thermal history, the station's recorder
+// and snapshot writers are observers (solver/studies/run_setup.hpp attaches them). The time loop
+// knows them only through this interface.
+class StepObserver {
+public:
+    virtual ~StepObserver() = default;
+    // Weld metal born at time t at temperature T (cell index of mesh::SolidCells).
+    virtual void born(std::size_t /*cell*/, double /*t*/, double /*T*/) {}
+    // One accepted step from (t0, T0) to (t1, T1); cells outside [begin, end) did not change.
+    virtual void step(double t0, std::span<const double> T0, double t1, std::span<const double> T1,
+                      std::size_t begin, std::size_t end) = 0;
+};
+
+// Progress reports: simulated time, arc x (NaN when off), step, max temperature.
+using ProgressFn = std::function<void(double t, double arc_x, double dt, double max_temperature)>;
+
+class Simulation {
+public:
+    Simulation(const mesh::Grid& grid, const Material& material, SurfaceLosses losses, std::vector<Pass> passes,
+               RunSettings settings);
+
+    // Adds a probe at a point inside the solid (the cell containing it). Throws if outside.
+    void add_probe(std::string name, const std::array<double, 3>& position);
+
+    // `observer` is told of every birth and accepted step; it must outlive run().
+    void add_observer(StepObserver& observer) { observers_.push_back(&observer); }
+    // `after_step` is called after every accepted step with the time and the temperature of every solid cell.
+    void add_observer(std::function<void(double t, std::span<const double> T)> after_step);
+
+    // Runs to the stop rule; `interrupt` is polled every step.
+    RunResult run(const std::atomic<bool>& interrupt, const ProgressFn& progress = {});
+
+    const mesh::SolidCells& cells() const { return cells_; }
+    const mesh::Grid& grid() const { return grid_; }
+    const std::vector<Probe>& probes() const { return probes_; }
+    std::span<const double> temperature() const { return T_; }
+    std::span<const std::uint8_t> active() const { return active_; }
+
+private:
+    void birth(const Pass& pass, const TorchPath& path, double t);
+    double max_temperature() const;
+    double filler_power(const Pass& pass, const TorchPath& path) const;
+    double stored_energy() const;
+
+    const mesh::Grid& grid_;
+    mesh::SolidCells cells_;
+    const Material& material_;
+    SurfaceLosses losses_;
+    std::vector<Pass> passes_;
+    RunSettings settings_;
+    ConductionOperator op_;
+    std::unique_ptr<Integrator> integrator_;
+    std::vector<double> H_, T_, H_old_, T_old_;
+    std::vector<std::uint8_t> active_, arc_heated_;
+    std::vector<int> weld_side_;  // per section cell: +1 / −1 for weld metal by side, 0 otherwise
+    std::vector<Probe> probes_;
+    std::vector<StepObserver*> observers_;
+    std::vector<std::unique_ptr<StepObserver>> owned_observers_;  // the after_step adapters
+    std::vector<CellPower> source_;
+    std::vector<std::size_t> born_;  // cells born during the current step
+};
+
+}  // namespace heatbead

@@ -1,0 +1,177 @@
+#include "solver/physics/procedure.hpp"
+
+#include "solver/physics/material.hpp"
+
+#include <algorithm>
+#include <array>
+#include <cmath>
+#include <cstdio>
+#include <numbers>
+
+namespace heatbead {
+
+namespace {
+std::string fmt(const char* format, double a, double b = 0) {
+    char buf[256];
+    std::snprintf(buf, sizeof buf, format, a, b);
+    return buf;
+}
+}  // namespace
+
+EfficiencyDefault default_arc_efficiency(Process process) {
+    switch (process) {
+        case Process::saw: return {1.0, "EN 1011-1 thermal efficiency factor k for submerged arc"};
+        case Process::smaw: return {0.8, "EN 1011-1 thermal efficiency factor k for manual metal arc"};
+        case Process::fcaw: return {0.8, "EN 1011-1 thermal efficiency factor k for flux-cored wire"};
+        case Process::gmaw: break;
+    }
+    return {0.8, "EN 1011-1 thermal efficiency factor k for MIG/MAG"};
+}
+
+double electrical_power(const ProcedureSpec& p) { return p.instantaneous_power.value_or(p.voltage * p.current); }
+
+double arc_energy(const ProcedureSpec& p) { return electrical_power(p) / p.travel_speed; }
+
+double net_power(const ProcedureSpec& p) { return p.net_power ? *p.net_power : p.arc_efficiency * electrical_power(p); }
+
+double heat_input(const ProcedureSpec& p) { return net_power(p) / p.travel_speed; }
+
+double equal_leg_for_area(double area, mesh::FaceShape face, double convexity) {
+    const double s = mesh::face_sign(face);
+    const double k = 2.0 * std::numbers::sqrt2 / 3.0 * convexity;
+    return -s * k + std::sqrt(k * k + 2.0 * area);
+}
+
+std::optional<Deposition> deposition(const WeldSetup& c) {
+    const auto& p = c.procedure;
+    if (!p.wire_feed_speed || p.wire_diameter <= 0) return std::nullopt;
+    const auto& j = c.joint;
+    Deposition d;
+    // Volume of wire fed per second over length welded per second.
+    d.area = std::numbers::pi * p.wire_diameter * p.wire_diameter / 4.0 * *p.wire_feed_speed / p.travel_speed;
+    // Each side is its own pass, so one pass's wire fills one bead.
+    d.equal_leg = equal_leg_for_area(d.area, j.face, j.convexity);
+    d.asked_area = mesh::fillet_area(j.leg_flange, j.leg_web, j.face, j.convexity);
+    d.asked_leg = equal_leg_for_area(d.asked_area, j.face, j.convexity);
+    d.difference = (d.equal_leg - d.asked_leg) / d.asked_leg;
+    return d;
+}
+
+TransferPreset transfer_preset(Process process, Transfer transfer) {
+    switch (process) {
+        case Process::saw: return {"submerged arc", 2300, 1.0, 0.35, "arc force of high current under flux"};
+        case Process::smaw: return {"manual metal arc", 2200, 0.3, 0.30, "drops across a short arc"};
+        case Process::fcaw: return {"flux-cored", 2300, 0.5, 0.35, "mostly large, partly axial drops"};
+        case Process::gmaw: break;
+    }
+    switch (transfer) {
+        case Transfer::short_circuit: return {"short-circuit", 1900, 0.0, 0.35, "metal handed over in short circuits"};
+        case Transfer::globular: return {"globular", 2200, 0.5, 0.40, "large drops, irregular paths"};
+        case Transfer::spray: return {"spray", 2500, 1.0, 0.45, "fine axial stream of free-flight droplets"};
+        case Transfer::pulsed_spray: return {"pulsed spray", 2400, 1.0, 0.40, "one axial drop per pulse"};
+        case Transfer::none: break;
+    }
+    return {"gas-metal-arc", 2200, 0.5, 0.40, "transfer mode not given"};
+}
+
+double droplet_heat_share(const WeldSetup& c) {
+    const auto& p = c.procedure;
+    const TransferPreset preset = transfer_preset(p.process, p.transfer);
+    if (!p.wire_feed_speed || p.wire_diameter <= 0) return preset.typical_droplet_share;
+    const Material steel = make_en1993_steel(c.base_melting);
+    const double density = 7850;  // kg/m³, EN 1993-1-2
+    const double per_kg = (steel.enthalpy(preset.droplet_temperature) - steel.enthalpy(c.ambient)) / density;
+    const double mass_rate = density * std::numbers::pi * p.wire_diameter * p.wire_diameter / 4 * *p.wire_feed_speed;
+    return std::clamp(mass_rate * per_kg / net_power(p), 0.0, 0.7);
+}
+
+SourceShape source_from_procedure(const WeldSetup& c) {
+    // The depth axis points along the torch into the root; the origin is the root corner where
+    // the arc is aimed (or the bead face, by choice). See the header for the rule.
+    const auto& j = c.joint;
+    const TransferPreset preset = transfer_preset(c.procedure.process, c.procedure.transfer);
+    const double share = droplet_heat_share(c);
+    const double chord = std::hypot(j.leg_flange, j.leg_web);
+    const double a_arc = chord / 2.0, b_arc = j.leg_flange * j.leg_web / chord;
+    const double a_drop = c.procedure.wire_diameter > 0 ? 2 * c.procedure.wire_diameter : a_arc / 2, b_drop = 2 * b_arc;
+    const double f = preset.impact * share;
+    SourceShape s;
+    s.from_procedure = true;
+    s.half_width = std::sqrt((1 - f) * a_arc * a_arc + f * a_drop * a_drop);
+    s.depth = std::sqrt((1 - f) * b_arc * b_arc + f * b_drop * b_drop);
+    s.front_length = s.half_width;
+    s.rear_length = 2.0 * s.half_width;
+    s.rule = fmt("rule of thumb from the bead and the transfer: the arc over the bead (a = face width/2, b = design "
+                 "throat) and a droplet column carrying %.2f of the heat (impact %.1f", f, preset.impact) +
+             fmt(" x droplet share %.2f), one ellipsoid of the same moments; c_f = a, c_r = 2a", share) + " (" +
+             std::string(preset.name) + ": " + std::string(preset.basis) + ")";
+    return s;
+}
+
+double spray_transition_current(double wire_diameter) {
+    // Diameter [mm] → transition current [A] for solid steel wire in argon-rich gas
+    // (common practice, no source; from memory). Linear between points, proportional outside.
+    static constexpr std::array<std::array<double, 2>, 5> table{{
+        {0.8, 150}, {0.9, 165}, {1.0, 185}, {1.2, 220}, {1.6, 275}}};
+    const double d = wire_diameter * 1e3;
+    if (d <= table.front()[0]) return table.front()[1] * d / table.front()[0];
+    if (d >= table.back()[0]) return table.back()[1] * d / table.back()[0];
+    for (std::size_t i = 1; i < table.size(); ++i) {
+        if (d <= table[i][0]) {
+            const double t = (d - table[i - 1][0]) / (table[i][0] - table[i - 1][0]);
+            return table[i - 1][1] + t * (table[i][1] - table[i - 1][1]);
+        }
+    }
+    return table.back()[1];
+}
+
+std::vector<std::string> plausibility_warnings(const WeldSetup& c) {
+    std::vector<std::string> w;
+    const auto& p = c.procedure;
+    const double q_kj_mm = heat_input(p) * 1e-6;
+    if (q_kj_mm > 5.0) w.push_back(fmt("heat input %.2f kJ/mm is above 5 kJ/mm: unusual for a fillet pass", q_kj_mm));
+    if (p.travel_speed < 1e-3) w.push_back(fmt("travel speed %.2f mm/s is below 1 mm/s: unusual", p.travel_speed * 1e3));
+    if (c.preheat > 300) {
+        w.push_back(fmt("preheat %.0f degC is above 300 degC: unusual; check the steel's tempering limits",
+                        c.preheat));
+    }
+    const bool spray_like = p.transfer == Transfer::spray || p.transfer == Transfer::globular;
+    if (p.transfer == Transfer::spray && p.wire_diameter > 0) {
+        const double transition = spray_transition_current(p.wire_diameter);
+        if (p.current < transition) {
+            w.push_back(fmt("spray transfer at %.0f A is below the usual transition current of about %.0f A",
+                            p.current, transition) +
+                        fmt(" for %.1f mm wire; expect globular transfer (common practice, no source)",
+                            p.wire_diameter * 1e3));
+        }
+    }
+    if ((p.transfer == Transfer::spray || p.transfer == Transfer::pulsed_spray) && p.gas &&
+        p.gas->argon + p.gas->helium < 80.0) {
+        w.push_back(fmt("spray transfer with %.0f %% CO2 + O2 in the gas: spray needs an argon-rich gas "
+                        "(about 80 %% argon or more); blends with much CO2 spray poorly (common practice, no source)",
+                        p.gas->co2 + p.gas->oxygen));
+    }
+    if (spray_like && p.position != Position::flat && p.position != Position::horizontal) {
+        w.push_back(std::string("spray and globular transfer work in the flat and horizontal positions only, not ") +
+                    std::string(to_string(p.position)) + " (common practice, no source)");
+    }
+    if (p.transfer == Transfer::short_circuit &&
+        std::max(c.joint.flange_thickness, c.joint.web_thickness) >= 10e-3) {
+        w.push_back("short-circuit transfer on plate 10 mm or thicker risks incomplete fusion into the flange "
+                    "(cold lap); confirm by a macro-etch (common practice, no source)");
+    }
+    if (auto d = deposition(c); d && std::abs(d->difference) > 0.15) {
+        w.push_back(fmt("the wire deposits an equal-leg fillet of %.1f mm, ", d->equal_leg * 1e3) +
+                    fmt("%+.0f %% off the legs asked for; check wire feed speed, travel speed and legs",
+                        d->difference * 100));
+    }
+    return w;
+}
+
+std::string_view to_string(Process p) { return process_names[static_cast<std::size_t>(p)]; }
+std::string_view to_string(Transfer t) {
+    return t == Transfer::none ? "none" : transfer_names[static_cast<std::size_t>(t) - 1];
+}
+std::string_view to_string(Position p) { return position_names[static_cast<std::size_t>(p)]; }
+
+}  // namespace heatbead

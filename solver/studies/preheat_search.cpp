@@ -1,0 +1,151 @@
+#include "solver/studies/preheat_search.hpp"
+
+#include "solver/core/parallel_tasks.hpp"
+#include "solver/physics/procedure.hpp"
+#include "solver/studies/run_analysis.hpp"
+#include "solver/studies/run_setup.hpp"
+#include "solver/case/toml_reader.hpp"
+
+#include <algorithm>
+#include <chrono>
+#include <cmath>
+#include <cstdio>
+#include <limits>
+#include <omp.h>
+
+namespace heatbead {
+
+namespace {
+
+constexpr double nan = std::numeric_limits<double>::quiet_NaN();
+
+std::string number(double v, const char* format) {
+    char buf[48];
+    std::snprintf(buf, sizeof buf, format, v);
+    return buf;
+}
+
+// The case as run at `preheat`: preheat and interpass at least that, a stop rule that lets the
+// HAZ cool through 500 °C (and, for a hydrogen-diffusion limit, through 100 °C or long enough).
+Case at_preheat(const Case& base, double preheat) {
+    Case c = base;
+    c.temperatures.preheat = preheat;
+    c.temperatures.interpass = std::max(c.temperatures.interpass, preheat);
+    c.solver.stop_temperature = std::max(c.solver.stop_temperature, preheat + 50);
+    if (const auto& need = c.preheat_search.min_time_to_100; need && preheat < 100) {
+        c.solver.stop_temperature = std::max(99.0, c.temperatures.ambient + 1);
+        c.solver.time_limit += *need;
+    }
+    return c;
+}
+
+void judge(PreheatTrial& t, const Case& c, const RunAnalysis& a, double end_time) {
+    const auto& limits = c.preheat_search;
+    t.hardness = t.t8_5 = t.time_to_100 = nan;
+    double held_above_100 = std::numeric_limits<double>::infinity();  // s since the peak, for probes still above
+    for (const auto& p : a.probes) {
+        if (std::isnan(p.hardness)) continue;
+        if (std::isnan(t.hardness) || p.hardness > t.hardness) t.hardness = p.hardness, t.hardest_probe = p.name;
+        t.t8_5 = std::isnan(t.t8_5) ? p.figures.t8_5 : std::min(t.t8_5, p.figures.t8_5);
+        if (std::isfinite(p.figures.time_to_100)) {
+            t.time_to_100 = std::isnan(t.time_to_100) ? p.figures.time_to_100 : std::min(t.time_to_100, p.figures.time_to_100);
+        } else {
+            held_above_100 = std::min(held_above_100, end_time - p.figures.time_of_peak);
+        }
+    }
+    std::vector<std::string> missed;
+    if (std::isnan(t.hardness)) {
+        missed.push_back("no HAZ probe at the station reached Ac3 (no fusion line?): nothing to judge");
+    } else {
+        t.meets_hardness = t.hardness <= limits.hardness_limit;
+        if (!t.meets_hardness) missed.push_back(number(t.hardness, "%.0f HV") + " above " + number(limits.hardness_limit, "%.0f HV"));
+        t.meets_t8_5 = !limits.min_t8_5 || t.t8_5 >= *limits.min_t8_5;
+        if (!t.meets_t8_5) missed.push_back("t8/5 " + number(t.t8_5, "%.2f s") + " below " + number(*limits.min_t8_5, "%.2f s"));
+        // Held at or above 100 °C (preheat of 100 °C or more) counts as meeting a hydrogen-diffusion time.
+        const double shortest = std::isnan(t.time_to_100) ? held_above_100 : std::min(t.time_to_100, held_above_100);
+        t.meets_time_to_100 = !limits.min_time_to_100 || t.preheat >= 100 || shortest >= *limits.min_time_to_100;
+        if (!t.meets_time_to_100) {
+            missed.push_back("time to 100 degC " + number(shortest, "%.0f s") + " below " +
+                             number(*limits.min_time_to_100, "%.0f s"));
+        }
+    }
+    t.passes = missed.empty();
+    if (t.passes) {
+        t.verdict = "meets every limit";
+    } else {
+        for (std::size_t i = 0; i < missed.size(); ++i) t.verdict += (i ? "; " : "") + missed[i];
+    }
+}
+
+}  // namespace
+
+PreheatTrial run_preheat_trial(const Case& base, const mesh::Grid& grid, const Material& material, double preheat,
+                               int threads, const std::atomic<bool>& interrupt) {
+    const auto start = std::chrono::steady_clock::now();
+    omp_set_num_threads(std::max(threads, 1));
+    const Case c = at_preheat(base, preheat);
+    PreparedRun run = prepare_run(c, grid, material);
+    const RunResult result = run.sim->run(interrupt);
+    if (!result.completed || interrupt.load()) throw SearchInterrupted();
+    PreheatTrial t;
+    t.preheat = preheat;
+    judge(t, c, analyse_run(c, run), result.end_time);
+    t.energy_error = result.energy.error();
+    t.wall_seconds = std::chrono::duration<double>(std::chrono::steady_clock::now() - start).count();
+    return t;
+}
+
+StandardPreheatInput standard_preheat_input(const Case& c) {
+    StandardPreheatInput in;
+    in.composition = c.base.composition.value_or(Composition{});
+    in.thickness = std::max(c.joint.flange_thickness, c.joint.web_thickness) * 1e3;
+    in.hydrogen = c.filler.diffusible_hydrogen.value_or(nan);
+    in.heat_input = heat_input(c.procedure) * 1e-6;
+    return in;
+}
+
+void require_preheat_inputs(const Case& c) {
+    std::vector<Diagnostic> missing;
+    if (!c.base.composition) {
+        missing.push_back({c.file, "base_metal.composition", "",
+                           "needed for the HAZ hardness and the carbon equivalents: add a [base_metal.composition] "
+                           "table with C, Mn, Si, Cr, Mo, V, Ni, Cu, Nb and B in mass per cent (C required, any "
+                           "other left out counts as 0)"});
+    }
+    if (!c.filler.diffusible_hydrogen) {
+        missing.push_back({c.file, "filler.diffusible_hydrogen", "",
+                           "needed for the standard method's preheat: the consumable's diffusible hydrogen, e.g. "
+                           "\"5 ml/100g\", or its designator such as \"H5\" or \"scale D\""});
+    }
+    if (!missing.empty()) throw CaseError(std::move(missing));
+}
+
+PreheatAnswer find_preheat(const Case& c, int jobs, int threads_per_trial, const std::atomic<bool>& interrupt,
+                           const std::function<void(const std::vector<PreheatTrial>&)>& on_trial) {
+    require_preheat_inputs(c);
+    PreheatAnswer answer;
+    answer.standard_input = standard_preheat_input(c);
+    answer.standard = en1011_method_b(answer.standard_input);
+    const mesh::Grid grid = mesh::build_grid(c.joint, c.grid);
+    const Material material = make_material(c.base);
+    const auto& spec = c.preheat_search;
+    const Ladder ladder{spec.lowest, spec.highest, spec.resolution};
+    const auto test = [&](const std::vector<double>& candidates) {
+        std::vector<PreheatTrial> done(candidates.size());
+        run_side_by_side(0, candidates.size(), [&](std::size_t i) {
+            done[i] = run_preheat_trial(c, grid, material, candidates[i], threads_per_trial, interrupt);
+        });
+        std::vector<bool> passed;
+        for (std::size_t i = 0; i < candidates.size(); ++i) {
+            answer.trials.push_back(done[i]);
+            passed.push_back(done[i].passes);
+        }
+        if (on_trial) on_trial(answer.trials);
+        return passed;
+    };
+    answer.search = find_lowest_passing(ladder, static_cast<std::size_t>(std::max(jobs, 1)), test);
+    if (answer.search.lowest_passing) answer.found = ladder.at(*answer.search.lowest_passing);
+    return answer;
+}
+
+}  // namespace heatbead

@@ -1,0 +1,67 @@
+// The lowest preheat that keeps the HAZ within the case's limits, found from full simulations:
+// each candidate preheat is one run on the same grid (built once), judged at the station's
+// hardened HAZ probes (fusion-line and HAZ probes that passed Ac3); candidates are narrowed by
+// the ladder search (solver/studies/ladder_search.hpp), several runs at a time on several cores.
+// Beside it, the standard method's value (solver/weldability/en1011_preheat.hpp) for the same inputs.
+#pragma once
+
+#include "mesh/grid.hpp"
+#include "solver/case/case.hpp"
+#include "solver/weldability/en1011_preheat.hpp"
+#include "solver/studies/ladder_search.hpp"
+#include "solver/physics/material.hpp"
+
+#include <atomic>
+#include <functional>
+#include <optional>
+#include <stdexcept>
+#include <string>
+#include <vector>
+
+namespace heatbead {
+
+// One full run at one preheat and what it means against the limits.
+struct PreheatTrial {
+    double preheat = 0;      // °C, also the interpass temperature of a second pass
+    double hardness = 0;     // HV: highest estimate over the hardened HAZ probes (NaN: none)
+    std::string hardest_probe;
+    double t8_5 = 0;         // s: shortest over the hardened probes (NaN: none)
+    double time_to_100 = 0;  // s: shortest over them (NaN: none cooled below 100 °C in the run)
+    bool meets_hardness = false, meets_t8_5 = false, meets_time_to_100 = false;
+    bool passes = false;
+    std::string verdict;      // "meets every limit", or the limits missed, in words
+    double energy_error = 0;  // of the run (a fraction)
+    double wall_seconds = 0;
+};
+
+// One run at `preheat` (grid and material shared, read-only, between concurrent trials), using
+// `threads` OpenMP threads. Throws SearchInterrupted when `interrupt` is set (it is polled every step).
+PreheatTrial run_preheat_trial(const Case& c, const mesh::Grid& grid, const Material& material, double preheat,
+                               int threads, const std::atomic<bool>& interrupt);
+
+struct SearchInterrupted : std::runtime_error {
+    SearchInterrupted() : std::runtime_error("the preheat search was interrupted") {}
+};
+
+struct PreheatAnswer {
+    std::vector<PreheatTrial> trials;  // in the order they finished
+    LadderSearch search;
+    std::optional<double> found;       // °C: lowest preheat meeting every limit
+    StandardPreheatInput standard_input;
+    StandardPreheat standard;
+};
+
+// The standard method's inputs for this case: base-metal composition, the thicker plate, the
+// filler's diffusible hydrogen and the EN 1011-1 heat input. The case must give the composition and
+// the hydrogen (check with require_preheat_inputs).
+StandardPreheatInput standard_preheat_input(const Case& c);
+
+// Throws CaseError naming base_metal.composition and/or filler.diffusible_hydrogen when absent.
+void require_preheat_inputs(const Case& c);
+
+// Runs the search: `jobs` trials at a time, each with `threads_per_trial` threads; `on_trial` is
+// called (from the calling thread) after each round with every trial finished so far.
+PreheatAnswer find_preheat(const Case& c, int jobs, int threads_per_trial, const std::atomic<bool>& interrupt,
+                           const std::function<void(const std::vector<PreheatTrial>&)>& on_trial = {});
+
+}  // namespace heatbead

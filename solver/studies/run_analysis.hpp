@@ -1,0 +1,70 @@
+// What a run means to a welding engineer: the cross-section measured like a macro-etch, thermal
+// cycles at probes on and beyond the fusion line, and the summary shown on screen and in files.
+#pragma once
+
+#include "post/cross_section.hpp"
+#include "post/section_history.hpp"
+#include "post/summary.hpp"
+#include "solver/case/case.hpp"
+#include "solver/numerics/simulation.hpp"
+#include "solver/studies/run_setup.hpp"
+
+#include <array>
+#include <limits>
+#include <string>
+#include <vector>
+
+namespace heatbead {
+
+struct ProbeResult {
+    std::string name;
+    std::array<double, 3> position;  // m
+    std::vector<double> time, temperature;
+    post::CycleFigures figures;
+    // Highest HAZ hardness estimate (solver/weldability/haz_hardness.hpp) at fusion-line and HAZ probes that
+    // were fully austenitised (peak ≥ Ac3), when the case gives the base metal's composition;
+    // NaN elsewhere. `hardness_bound` names the phase bound that applied, if any.
+    double hardness = std::numeric_limits<double>::quiet_NaN();
+    std::string hardness_bound;
+};
+
+struct RunAnalysis {
+    double ac1 = 0, ac3 = 0;           // °C
+    bool composition_assumed = false;  // no composition in the case: a typical one was used
+    post::CrossSection section;        // at the station
+    std::vector<post::CrossSection> along;  // every few mm along the weld
+    std::vector<ProbeResult> probes;   // automatic ones at the station, then the user's
+    std::vector<double> t8_5;          // per solid cell, NaN where not defined
+    // The probe with the highest hardness estimate (null when none was estimated).
+    const ProbeResult* hardest() const;
+};
+
+// The composition the HAZ boundaries are computed from: the case's, or, without one, a typical
+// structural C–Mn steel (then `assumed` is set).
+Composition haz_composition(const Case& c, bool& assumed);
+// Solidus, Ac1 and Ac3 (Andrews 1965) of the base metal.
+post::SectionLevels section_levels(const Case& c);
+
+// Fusion into the flange below which short-circuit transfer is flagged for cold lap [m]
+// (common practice, no source).
+inline constexpr double shallow_fusion = 0.5e-3;
+
+// Probe offsets into the HAZ beyond the fusion line, normal to each plate [m].
+inline constexpr std::array<double, 3> haz_probe_offsets{0.5e-3, 1e-3, 2e-3};
+
+// After `run` has run.
+RunAnalysis analyse_run(const Case& c, const PreparedRun& run);
+
+// The cross-section measured every few mm along the weld (start and stop effects), as CSV with
+// units in the header.
+std::string along_weld_csv(const RunAnalysis& analysis);
+// The station's fusion, Ac3 and Ac1 lines as CSV rows "line, part, y [mm], z [mm]" (part numbers
+// the separate polylines of one line).
+std::string section_lines_csv(const RunAnalysis& analysis);
+// Each probe's position and cooling figures, as CSV with units in the header.
+std::string probes_csv(const RunAnalysis& analysis);
+
+// Every number of the screen summary, with units (the same items go to JSON and CSV).
+post::Summary make_summary(const Case& c, const RunResult& result, const RunAnalysis& analysis, double wall_seconds);
+
+}  // namespace heatbead
