@@ -1,6 +1,7 @@
 #include "post/compare_report.hpp"
 
 #include "post/atomic_file.hpp"
+#include "post/cautions.hpp"
 #include "post/html_page.hpp"
 #include "post/report_figures.hpp"
 #include "post/svg_plot.hpp"
@@ -13,13 +14,6 @@
 namespace heatbead::post {
 
 namespace {
-
-// Only for a caller that gives none: a comparison invites picking the "better" procedure, and the
-// page must not go out without saying that the pick still has to be qualified.
-constexpr const char* standard_caution =
-    "The comparison is an estimate for planning: it shows how these procedures differ in this model, not "
-    "that any of them is adequate. Fusion, hardness and preheat are proven by procedure qualification "
-    "(macro-etch, hardness survey) under the governing welding code; follow it and licensed engineering practice.";
 
 constexpr const char* page_style = R"(
 .differences{max-width:60em}
@@ -147,7 +141,7 @@ std::string render_compare_report(const CompareReportInput& in) {
     std::string page = page_start({.title = in.title,
                                    .case_file = case_files,
                                    .created = in.created,
-                                   .caution = in.caution.empty() ? standard_caution : in.caution,
+                                   .caution = in.caution.empty() ? compare_page_caution : in.caution,
                                    .warnings = in.warnings,
                                    .extra_style = page_style});
     page += differences_list(in.differences);

@@ -30,7 +30,7 @@ struct CompareReportInput {
     std::vector<std::pair<std::string, std::vector<std::string>>> rows;
     std::vector<std::string> differences;         // plain sentences, e.g. "B fuses 1.4 mm deeper into the flange"
     std::vector<std::string> warnings;            // each already prefixed with the procedure's name
-    std::string caution;                          // shown first, in a box
+    std::string caution;                          // shown first, in a box (empty: compare_page_caution, post/cautions.hpp)
 };
 
 // The whole HTML page. Throws std::invalid_argument with fewer than two procedures, or a row whose

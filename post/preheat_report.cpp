@@ -1,8 +1,10 @@
 #include "post/preheat_report.hpp"
 
 #include "post/atomic_file.hpp"
+#include "post/cautions.hpp"
 #include "post/html_page.hpp"
 #include "post/svg_plot.hpp"
+#include "post/text.hpp"
 
 #include <algorithm>
 #include <array>
@@ -14,13 +16,6 @@
 namespace heatbead::post {
 
 namespace {
-
-// Only for a caller that gives none: a preheat set too low can let a weld crack, so the page never
-// goes out without the caution.
-constexpr const char* standard_caution =
-    "The preheat and hardness shown are estimates for planning, not a procedure. The preheat to use is the one "
-    "the governing welding code requires and a qualified welding procedure (with its hardness survey) proves; "
-    "follow those and licensed engineering practice.";
 
 // The page's own rules: the header row of the runs table, and the runs that meet every limit, marked
 // by weight as well as by colour so they still stand out in grey print.
@@ -154,7 +149,7 @@ std::string render_preheat_report(const PreheatReportInput& in) {
     std::string page = page_start({.title = in.title,
                                    .case_file = in.case_file,
                                    .created = in.created,
-                                   .caution = in.caution.empty() ? standard_caution : in.caution,
+                                   .caution = in.caution.empty() ? preheat_page_caution : in.caution,
                                    .warnings = in.warnings,
                                    .extra_style = page_style});
     page += table("Answer", in.answer) + "\n";

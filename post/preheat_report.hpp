@@ -35,7 +35,7 @@ struct PreheatReportInput {
     std::optional<double> found;     // °C: the lowest passing preheat of the search
     std::optional<double> standard;  // °C: the standard method's value (clipped at the search's lowest)
     std::vector<std::string> warnings;
-    std::string caution;  // shown first, in a box
+    std::string caution;  // shown first, in a box (empty: preheat_page_caution, post/cautions.hpp)
 };
 
 // The whole HTML page. Throws std::invalid_argument when there are no runs to show.

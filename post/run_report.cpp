@@ -1,9 +1,11 @@
 #include "post/run_report.hpp"
 
 #include "post/atomic_file.hpp"
+#include "post/cautions.hpp"
 #include "post/html_page.hpp"
 #include "post/report_figures.hpp"
 #include "post/svg_plot.hpp"
+#include "post/text.hpp"
 
 #include <algorithm>
 #include <cmath>
@@ -13,10 +15,6 @@
 namespace heatbead::post {
 
 namespace {
-
-constexpr const char* standard_caution =
-    "Predictions are estimates for planning. Fusion and soundness are proven by procedure qualification "
-    "(macro-etch, hardness survey) under the governing welding code.";
 
 // Section lines: the fusion line is the strongest mark; the two HAZ lines differ in dash and colour so
 // they stay apart in grey print too.
@@ -121,7 +119,7 @@ std::string render_report(const ReportInput& in) {
     std::string page = page_start({.title = in.title,
                                    .case_file = in.case_file,
                                    .created = in.created,
-                                   .caution = in.caution.empty() ? standard_caution : in.caution,
+                                   .caution = in.caution.empty() ? run_page_caution : in.caution,
                                    .warnings = in.warnings});
     page += "<div class=\"tables\">" + table("Procedure", in.procedure) + table("Results", in.results) + "</div>\n";
     page += "<div class=\"figures\">\n";

@@ -47,7 +47,7 @@ struct ReportInput {
     std::vector<Cycle> cycles;          // thermal cycles at probes
     SectionImage peak_map;              // peak temperature on the cross-section
     std::vector<std::string> warnings;
-    std::string caution;  // empty: the standard caution on estimates and procedure qualification
+    std::string caution;  // empty: run_page_caution (post/cautions.hpp)
 };
 
 // The whole HTML page. Throws std::invalid_argument naming the part whose sizes do not agree (a

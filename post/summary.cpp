@@ -1,10 +1,11 @@
 #include "post/summary.hpp"
 
+#include "post/text.hpp"
+
 #include <nlohmann/json.hpp>
 
 #include <algorithm>
 #include <cmath>
-#include <cstdio>
 
 namespace heatbead::post {
 
@@ -12,9 +13,8 @@ namespace {
 std::string shown(const SummaryItem& i) {
     if (!i.text.empty()) return i.text;
     if (!i.value || std::isnan(*i.value)) return "n/a";
-    char buf[64];
-    std::snprintf(buf, sizeof buf, "%.*f", i.decimals, *i.value);
-    return i.unit.empty() ? buf : std::string(buf) + " " + i.unit;
+    const std::string value = format_text("%.*f", i.decimals, *i.value);
+    return i.unit.empty() ? value : value + " " + i.unit;
 }
 
 std::string csv_field(const std::string& s) {
@@ -37,14 +37,10 @@ std::string Summary::to_text() const {
             if (i.group != g) continue;
             line += (line.empty() ? "" : ", ") + i.label + " " + shown(i);
         }
-        char head[16];
-        std::snprintf(head, sizeof head, "%-12s", g.c_str());
-        out += head + line + "\n";
+        out += format_text("%-12s", g.c_str()) + line + "\n";
     }
     for (const auto& [g, note] : notes_) {
-        char head[16];
-        std::snprintf(head, sizeof head, "%-12s", g.c_str());
-        out += head + note + "\n";
+        out += format_text("%-12s", g.c_str()) + note + "\n";
     }
     return out;
 }

@@ -2,7 +2,6 @@
 
 #include <algorithm>
 #include <cmath>
-#include <cstdio>
 #include <stdexcept>
 #include <utility>
 
@@ -91,16 +90,6 @@ std::string escape_html(std::string_view text) {
     return out;
 }
 
-std::string format_fixed(double value, int decimals) {
-    if (!std::isfinite(value)) return std::isnan(value) ? "n/a" : (value > 0 ? "inf" : "-inf");
-    char buffer[64];
-    std::snprintf(buffer, sizeof buffer, "%.*f", std::clamp(decimals, 0, 12), value);
-    std::string s = buffer;
-    // A value that rounds to zero prints without a sign, so the same quantity never shows as "-0.0".
-    if (s.front() == '-' && s.find_first_not_of("-0.") == std::string::npos) s.erase(0, 1);
-    return s;
-}
-
 std::string heat_colour(double t) {
     struct Stop {
         double at;
@@ -114,10 +103,8 @@ std::string heat_colour(double t) {
     const Stop& a = stops[i - 1];
     const Stop& b = stops[i];
     const double u = (t - a.at) / (b.at - a.at);
-    char buffer[8];
-    std::snprintf(buffer, sizeof buffer, "#%02x%02x%02x", static_cast<int>(std::lround(a.r + u * (b.r - a.r))),
-                  static_cast<int>(std::lround(a.g + u * (b.g - a.g))), static_cast<int>(std::lround(a.b + u * (b.b - a.b))));
-    return buffer;
+    return format_text("#%02x%02x%02x", static_cast<int>(std::lround(a.r + u * (b.r - a.r))),
+                       static_cast<int>(std::lround(a.g + u * (b.g - a.g))), static_cast<int>(std::lround(a.b + u * (b.b - a.b))));
 }
 
 SvgPlot::SvgPlot(std::string id, std::string title, int width, int height, Axis x, Axis y, bool equal_scale,

@@ -5,6 +5,8 @@
 // is escaped.
 #pragma once
 
+#include "post/text.hpp"  // format_fixed: the numbers of the axes and of the pages around the figures
+
 #include <array>
 #include <span>
 #include <string>
@@ -17,9 +19,6 @@ using Point = std::array<double, 2>;
 
 // Escapes & < > " ' so that any text is safe as element content or as an attribute value.
 std::string escape_html(std::string_view text);
-
-// Fixed-point text with `decimals` digits after the point (C locale, "-0.00" shown as "0.00").
-std::string format_fixed(double value, int decimals);
 
 // Colour of the heat scale at fraction t in [0, 1] (clamped): dark slate at the cold end through
 // blue, sage and straw to deep red at the hot end, as "#rrggbb". Lightness rises to straw and falls

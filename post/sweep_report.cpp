@@ -1,14 +1,15 @@
 #include "post/sweep_report.hpp"
 
 #include "post/atomic_file.hpp"
+#include "post/cautions.hpp"
 #include "post/html_page.hpp"
 #include "post/report_figures.hpp"
 #include "post/svg_plot.hpp"
+#include "post/text.hpp"
 
 #include <algorithm>
 #include <array>
 #include <cctype>
-#include <charconv>
 #include <cmath>
 #include <iterator>
 #include <limits>
@@ -19,14 +20,6 @@
 namespace heatbead::post {
 
 namespace {
-
-// Only for a caller that gives none: a sweep invites picking the "best" point, and the page must not
-// go out without saying that the pick still has to be qualified.
-constexpr const char* standard_caution =
-    "The sweep shows how this model responds to the inputs varied; its values are estimates for planning, "
-    "and no point of it is shown to be an adequate procedure. Fusion, hardness and preheat are proven by "
-    "procedure qualification (macro-etch, hardness survey) under the governing welding code; follow it, "
-    "qualified welding procedures and licensed engineering practice.";
 
 // An output's figures take the width of their own SVG (most are narrower than the shared 660 px, so
 // two or three fit side by side); the caption wraps within it rather than widening the figure to its
@@ -51,14 +44,6 @@ constexpr std::size_t max_named_groups = std::size(group_colours);
 
 Stroke group_stroke(std::size_t i) {
     return {group_colours[i % max_named_groups], 1.6, group_dashes[i % max_named_groups]};
-}
-
-// Axis values as a reader typed them: shortest text to 6 significant digits ("250", "0.3", "1e+06"),
-// with no locale involved.
-std::string number_text(double v) {
-    char buffer[32];
-    const auto end = std::to_chars(buffer, buffer + sizeof buffer, v, std::chars_format::general, 6).ptr;
-    return {buffer, end};
 }
 
 std::string with_unit(const SweepColumn& c) { return c.unit.empty() ? c.name : c.name + " (" + c.unit + ")"; }
@@ -251,7 +236,7 @@ std::string render_sweep_report(const SweepReportInput& in) {
     std::string page = page_start({.title = in.title,
                                    .case_file = in.sweep_file,
                                    .created = in.created,
-                                   .caution = in.caution.empty() ? standard_caution : in.caution,
+                                   .caution = in.caution.empty() ? sweep_page_caution : in.caution,
                                    .warnings = {},
                                    .extra_style = page_style});
     const std::size_t done = in.rows.size(), failed = in.failures.size(), waiting = in.points_total - done - failed;

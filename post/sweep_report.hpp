@@ -28,7 +28,7 @@ struct SweepReportInput {
     };
     std::vector<Failure> failures;
     std::size_t points_total = 0;  // including those not yet run
-    std::string caution;
+    std::string caution;  // empty: sweep_page_caution (post/cautions.hpp)
 };
 
 // The whole HTML page. Throws std::invalid_argument for a row whose size is not axes + outputs, a

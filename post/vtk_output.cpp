@@ -1,6 +1,7 @@
 #include "post/vtk_output.hpp"
 
 #include "post/atomic_file.hpp"
+#include "post/text.hpp"
 
 #include <vtkCellArray.h>
 #include <vtkCellData.h>
@@ -20,9 +21,7 @@
 #include <vtkXMLUtilities.h>
 
 #include <algorithm>
-#include <charconv>
 #include <cmath>
-#include <cstdio>
 #include <set>
 #include <sstream>
 #include <stdexcept>
@@ -157,13 +156,6 @@ vtkNew<vtkUnstructuredGrid> hexahedra(const mesh::Grid& grid, const mesh::SolidC
     return mesh_out;
 }
 
-// Shortest text that reads back as the same double, so index times match the snapshots exactly.
-std::string exact_text(double value) {
-    char buffer[32];
-    const auto result = std::to_chars(buffer, buffer + sizeof buffer, value);
-    return {buffer, result.ptr};
-}
-
 }  // namespace
 
 void write_vtk_cells(const std::filesystem::path& path, const mesh::Grid& grid, const mesh::SolidCells& cells,
@@ -185,9 +177,7 @@ void VtkSeries::add(double time, const mesh::Grid& grid, const mesh::SolidCells&
     if (!std::isfinite(time) || (!snapshots_.empty() && time <= snapshots_.back().time))
         throw std::invalid_argument("VTK series: time " + exact_text(time) + " is not finite or not after " +
                                     (snapshots_.empty() ? "nothing" : exact_text(snapshots_.back().time)));
-    char number[16];
-    std::snprintf(number, sizeof number, "_%06zu.vtu", snapshots_.size());
-    const std::string file = stem_ + number;
+    const std::string file = stem_ + format_text("_%06zu.vtu", snapshots_.size());
 
     auto data = hexahedra(grid, cells, present, fields);
     // "TimeValue" is the field-data name VTK's XML readers take as the time of a dataset, so a snapshot
@@ -214,6 +204,7 @@ void VtkSeries::finish() {
     for (const auto& snapshot : snapshots_) {
         vtkNew<vtkXMLDataElement> entry;
         entry->SetName("DataSet");
+        // The shortest text that reads back as the same double, so index times match the snapshots exactly.
         entry->SetAttribute("timestep", exact_text(snapshot.time).c_str());
         entry->SetAttribute("file", snapshot.file.c_str());
         collection->AddNestedElement(entry);

@@ -5,19 +5,9 @@
 set -u
 # shellcheck source=interrupt_helpers.sh
 source "$(dirname "$0")/interrupt_helpers.sh"
-heatbead=$1 case_file=$2 out=$3
-shift 3
-rm -rf "$out"
-err=$(mktemp)
-trap 'rm -f "$err"' EXIT
-fail() {
-  echo "FAIL: $*"
-  echo "stderr of heatbead:"
-  cat "$err"
-  exit 1
-}
+start_interrupt_test "$@"
 
-"$heatbead" preheat "$case_file" --out "$out" --jobs 2 --threads 1 "$@" >/dev/null 2>"$err" &
+"$heatbead" preheat "$case_file" --out "$out" --jobs 2 --threads 1 "${extra_args[@]}" >/dev/null 2>"$err" &
 pid=$!
 
 # The first round (two runs) ends with preheat_runs.csv; interrupt during the second.

@@ -4,16 +4,7 @@
 set -u
 # shellcheck source=interrupt_helpers.sh
 source "$(dirname "$0")/interrupt_helpers.sh"
-heatbead=$1 case_file=$2 out=$3
-rm -rf "$out"
-err=$(mktemp)
-trap 'rm -f "$err"' EXIT
-fail() {
-  echo "FAIL: $*"
-  echo "stderr of heatbead:"
-  cat "$err"
-  exit 1
-}
+start_interrupt_test "$@"
 
 "$heatbead" run "$case_file" --out "$out" >/dev/null 2>"$err" &
 pid=$!

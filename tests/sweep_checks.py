@@ -114,8 +114,8 @@ def trends(table):
     currents = sorted({c for c, _ in by})
     thicknesses = sorted({d for _, d in by})
     value = lambda c, d, k: float(by[(c, d)][k])
-    # EN 1011-2:2001 Annex D (shared REFERENCES §4): t8/5 grows with heat input; penetration grows
-    # with heat input (common practice, no source).
+    # EN 1011-2:2001 Annex D, the 2-D and 3-D cooling-time formulas: t8/5 grows with heat input;
+    # penetration grows with heat input (common practice, no source).
     for d in thicknesses:
         for k in ("penetration_flange [mm]", "t8_5_min [s]"):
             if not value(currents[1], d, k) > value(currents[0], d, k):

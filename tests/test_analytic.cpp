@@ -1,6 +1,7 @@
-// The analytic reference solutions in tests/analytic against published formulas and check values
-// (shared REFERENCES §2–3 and check values 6–8) and against the equations they must satisfy.
-// Each check names its source; "derived" marks a value worked out from the cited formulas.
+// The analytic reference solutions in tests/analytic against published formulas (Rosenthal 1941
+// and 1946, Nguyen et al. 1999, Goldak et al. 1984, Carslaw & Jaeger 1959), values worked by hand
+// from them, and the equations they must satisfy. Each check names its source; "derived" marks a
+// value worked out from the cited formulas.
 #include "tests/analytic/conduction_1d.hpp"
 #include "tests/analytic/moving_sources.hpp"
 
@@ -18,7 +19,7 @@ using namespace heatbead::analytic;
 
 namespace {
 constexpr double pi = std::numbers::pi;
-const Properties steel{30.0, 5e6};  // k = 30 W/(m K), ρc = 0.005 J/(mm³ K) as in check values 6–7
+const Properties steel{30.0, 5e6};  // k = 30 W/(m K), ρc = 0.005 J/(mm³ K): round steel-like values
 
 // A double ellipsoid much smaller than the distances at which it is compared with a point source.
 DoubleEllipsoid tiny(double Q, double v, double size) { return {Q, size, size, size, size, v, 0.0}; }
@@ -48,9 +49,10 @@ double one_sided_slope(const F& T, double x, double dx) {
 }
 }  // namespace
 
-TEST_CASE("a fast source reaches Rosenthal's fast-source peak (check value 6)", "[analytic]") {
-    // REFERENCES §2 and check value 6 (derived there): Tp − T0 = 2(q/v)/(π e ρc r²); with
-    // q/v = 1000 J/mm, ρc = 0.005 J/(mm³ K), T0 = 20 °C: r = 10 mm → 488.4 °C, r = 8 mm → 751.9 °C.
+TEST_CASE("a fast source reaches Rosenthal's fast-source peak", "[analytic]") {
+    // Derived from Rosenthal's point source (Weld. J. 20 (1941) 220s) in the fast-source limit:
+    // Tp − T0 = 2(q/v)/(π e ρc r²). By hand with q/v = 1000 J/mm, ρc = 0.005 J/(mm³ K), T0 = 20 °C:
+    // 20 + 2000/(π·e·0.005·r²) gives r = 10 mm → 488.4 °C, r = 8 mm → 751.9 °C.
     // The limit needs v·r/(2α) ≫ 1: at v = 0.1 m/s, α = 6e-6 m²/s it is 67–83. The point sits at
     // 45° between the surface and the depth direction: the limit is axisymmetric in the half-space.
     const double q_per_v = 1e6, v = 0.1;
@@ -66,7 +68,7 @@ TEST_CASE("a fast source reaches Rosenthal's fast-source peak (check value 6)", 
 }
 
 TEST_CASE("a tiny double ellipsoid reproduces Rosenthal's thick-plate field", "[analytic]") {
-    // Rosenthal (1941), REFERENCES §2: ΔT = Q/(2πkR)·exp(−v(R + ξ)/(2α)). After 40 s of travel the
+    // Rosenthal, Weld. J. 20 (1941) 220s: ΔT = Q/(2πkR)·exp(−v(R + ξ)/(2α)). After 40 s of travel the
     // memory of the start has decayed as exp(−v²s/(4α)) ≈ e^−42 (derived). A source of size d
     // smears the point-source field over a variance ~d²/6, an effect of order (d·v/(2α))² ≈ 2e-3 for
     // d = 0.1 mm (derived); it vanishes as d², which the last check shows.
@@ -87,8 +89,9 @@ TEST_CASE("a tiny double ellipsoid reproduces Rosenthal's thick-plate field", "[
 TEST_CASE("Rosenthal's thick-plate t8/5 and cooling rate on the weld axis", "[analytic]") {
     // On the axis behind the source R = −ξ, so Rosenthal gives ΔT = (q/v)/(2πk·τ), τ = time since
     // the source passed (derived). Hence t8/5 = (q/v)/(2πk)·[1/(500 − T0) − 1/(800 − T0)] and the
-    // cooling rate 2πk(T − T0)²/(q/v) (REFERENCES §2, from memory, consistent with the formula).
-    // Check value 7: k = 30 W/(m K), q/v = 1000 J/mm → 51.0 °C/s at 540 °C.
+    // cooling rate 2πk(T − T0)²/(q/v) (Rosenthal's thick-plate cooling law, from memory, consistent
+    // with the formula). By hand: k = 30 W/(m K), q/v = 1000 J/mm → 2π·30·520²/10⁶ = 51.0 °C/s at
+    // 540 °C.
     const double q_per_v = 1e6, v = 5e-3, T0 = 20.0, x = 0.15;
     const DoubleEllipsoid source = tiny(q_per_v * v, v, 5e-4);
     const PeakCooling pc = peak_and_cooling(source, steel, x, 0.0, 0.0, T0, {0.0, 60.0, 240});
@@ -106,8 +109,8 @@ TEST_CASE("Rosenthal's thick-plate t8/5 and cooling rate on the weld axis", "[an
 }
 
 TEST_CASE("the exact front/rear split matches the published form and Goldak's source", "[analytic]") {
-    // Nguyen et al. (1999) form (REFERENCES §3) with E_f = E_r = 1 must equal the exact split when
-    // c_f = c_r (derived in moving_sources.hpp: the erf terms cancel).
+    // The published form of Nguyen et al., Weld. J. 78 (1999) 265s, with E_f = E_r = 1 must equal
+    // the exact split when c_f = c_r (derived in moving_sources.hpp: the erf terms cancel).
     const DoubleEllipsoid symmetric{2000.0, 5e-3, 4e-3, 6e-3, 6e-3, 5e-3, 0.0};
     const RiseOptions published{1e-6, FrontRearSplit::published};
     const auto [x, y, z, t] = GENERATE(std::tuple{0.0, 0.0, 0.0, 0.3}, std::tuple{-4e-3, 3e-3, -2e-3, 2.0},
@@ -117,11 +120,12 @@ TEST_CASE("the exact front/rear split matches the published form and Goldak's so
           Approx(double_ellipsoid_rise(symmetric, steel, x, y, z, t, published)).epsilon(1e-9));
 }
 
-TEST_CASE("at the first instant the exact split releases Goldak's power density (check value 8)", "[analytic]") {
+TEST_CASE("at the first instant the exact split releases Goldak's power density", "[analytic]") {
     // Over a short time δt the rise is ΔT ≈ q·δt/ρc with q Goldak's density at the mean source
-    // position (Goldak, Chakravarti & Bibby 1984; REFERENCES §1). Check value 8: Q = 2000 W,
-    // a = 5, b = 4, c_f = 4, c_r = 10 mm → q_max = 2.666·10¹⁰ W/m³. Diffusion over δt = 1e-4 s
-    // (αδt ≈ 6e-10 m² against c² ≥ 1.6e-5 m²) and travel v·δt change this by ~1e-4 (derived).
+    // position (Goldak, Chakravarti & Bibby, Metall. Trans. B 15B (1984) 299). By hand: Q = 2000 W,
+    // a = 5, b = 4, c_f = 4, c_r = 10 mm → q_max = 6√3·f_f·Q/(a·b·c_f·π^1.5) = 2.666·10¹⁰ W/m³
+    // with f_f = 8/14. Diffusion over δt = 1e-4 s (αδt ≈ 6e-10 m² against c² ≥ 1.6e-5 m²) and
+    // travel v·δt change this by ~1e-4 (derived).
     const DoubleEllipsoid goldak{2000.0, 5e-3, 4e-3, 4e-3, 10e-3, 5e-3, 0.0};
     const double dt = 1e-4, centre = goldak.speed * dt / 2.0;
     CHECK(goldak_density(goldak, 0, 0, 0) == Approx(2.666e10).epsilon(1e-3));
@@ -140,8 +144,8 @@ TEST_CASE("at the first instant the exact split releases Goldak's power density 
 }
 
 TEST_CASE("the double-ellipsoid field holds the energy released", "[analytic]") {
-    // ∫ρc·ΔT dV over z ≤ 0 = Q·(time the arc was on) (derived in moving_sources.hpp; check value 8:
-    // the source integrates to Q over the half-space). The field is smooth and decays like a
+    // ∫ρc·ΔT dV over z ≤ 0 = Q·(time the arc was on) (derived in moving_sources.hpp from Goldak's
+    // source, which integrates to Q over the half-space). The field is smooth and decays like a
     // Gaussian, so the trapezoid rule on a coarse grid is accurate: the error of a Gaussian of
     // width σ on spacing h is ~exp(−2π²σ²/h²) ≈ 1e-4 here (derived). Symmetric in y, so y ≥ 0.
     const DoubleEllipsoid source{2000.0, 4e-3, 4e-3, 4e-3, 8e-3, 5e-3, 0.0,
@@ -205,7 +209,9 @@ TEST_CASE("erfcx matches exp(u²)·erfc(u) in extended precision", "[analytic]")
         const double reference = static_cast<double>(std::exp(ul * ul) * std::erfc(ul));
         CHECK(erfcx(u) == Approx(reference).epsilon(1e-13));
     }
-    CHECK(erfcx(1e8) * 1e8 * std::sqrt(pi) == Approx(1.0).epsilon(1e-14));  // erfcx(u) → 1/(u√π)
+    // erfcx(u) → 1/(u√π): the leading term of erfc's asymptotic series (Abramowitz & Stegun 7.1.23,
+    // from memory).
+    CHECK(erfcx(1e8) * 1e8 * std::sqrt(pi) == Approx(1.0).epsilon(1e-14));
 }
 
 TEST_CASE("the erfc solutions satisfy the heat equation and their boundary conditions", "[analytic]") {
@@ -255,8 +261,9 @@ TEST_CASE("the convective solution has the right limits without overflow", "[ana
 }
 
 TEST_CASE("Neumann's melting solution satisfies the Stefan problem", "[analytic]") {
-    // Neumann's solution (Carslaw & Jaeger 1959 §11.2, from memory). Steel-like values from
-    // REFERENCES §7: T_m = 1495 °C, ρL = 7850 kg/m³·277 kJ/kg; the phases differ on purpose.
+    // Neumann's solution (Carslaw & Jaeger 1959 §11.2, from memory). Steel-like values: T_m = 1495 °C
+    // and L = 277 kJ/kg (typical of a C–Mn steel, from memory), ρ = 7850 kg/m³ (EN 1993-1-2 §3.2.2);
+    // the phases differ on purpose.
     MeltingProblem problem;
     problem.liquid = {35.0, 6.0e6};
     problem.solid = {28.0, 5.2e6};
@@ -288,7 +295,9 @@ TEST_CASE("Neumann's melting solution satisfies the Stefan problem", "[analytic]
 TEST_CASE("Neumann's λ has the known one-phase values", "[analytic]") {
     // One phase (T_init = T_m): exp(λ²)·erf(λ)·λ = Ste/√π. Small Ste: λ ≈ √(Ste/2)·(1 − Ste/6)
     // (derived in conduction_1d.hpp; the leading term is the quasi-steady limit). Ste = 1:
-    // λ = 0.6201 (one-phase tables, from memory).
+    // λ = 0.6201, the root of λ·exp(λ²)·erf(λ) = 1/√π, the transcendental equation of Neumann's
+    // problem (Carslaw & Jaeger, Conduction of Heat in Solids, 2nd ed. 1959, §11.2, section from
+    // memory), solved here by bisection (0.62006); it agrees with the one-phase tables (from memory).
     const auto melting = [](double ste, double initial) {
         MeltingProblem p;
         p.liquid = {30.0, 5e6};

@@ -138,7 +138,7 @@ TEST_CASE("defaults are filled in and the resolved case reads back to itself", "
     const Case& c = first.value;
     CHECK(c.joint.leg_web == c.joint.leg_flange);
     CHECK(c.temperatures.preheat == 20);
-    CHECK(c.procedure.arc_efficiency == 0.8);
+    CHECK(c.procedure.arc_efficiency == 0.8);  // EN 1011-1:2009 factor k for MIG/MAG
     CHECK(c.output.station == Approx(c.joint.weld_length / 2));
     CHECK_THAT(first.resolved_toml, Catch::Contains("leg_web = \"6 mm\"  # default"));
 

@@ -52,7 +52,8 @@ TEST_CASE("HAZ t8/5 of a thick tee follows EN 1011-2 Annex D", "[reference][slow
     const Cooling base = run_reference({});
     const Cooling hot = run_reference({{"procedure.travel_speed", "4.5 mm/s"}});  // higher heat input
     const Cooling warm = run_reference({{"temperatures.preheat", "150 degC"}});
-    // Hand computation for the base case: Q = 1.121 kJ/mm, T0 = 20 °C → 3.98 s.
+    // Hand computation for the base case: Q = 0.8·29 V·290 A / 6 mm/s = 1.121 kJ/mm (EN 1011-1),
+    // T0 = 20 °C → 6600·1.121·(1/480 − 1/780)·0.67 = 3.97 s.
     for (const auto& [run, T0] : {std::pair{base, 20.0}, std::pair{hot, 20.0}, std::pair{warm, 150.0}}) {
         const double standard = en1011_t85(run.heat_input, T0);
         INFO("Q " << run.heat_input << " kJ/mm, T0 " << T0 << ": simulated " << run.t8_5 << " s, EN 1011-2 " << standard);

@@ -1,6 +1,6 @@
 // Tests of solver/heat_source: the torch path on a tee joint and the Goldak double ellipsoid. Each check
-// names its source: the published formula (Goldak, Chakravarti & Bibby 1984, REFERENCES.md §1), its
-// analytic integrals, or hand geometry.
+// names its source: the published formula (Goldak, Chakravarti & Bibby, Metall. Trans. B 15B (1984)
+// 299), its analytic integrals, or hand geometry.
 #include <catch2/catch.hpp>
 
 #include <cmath>
@@ -24,7 +24,8 @@ constexpr double deg = std::numbers::pi / 180.0;
 // Allowance for rounding in geometry computed in doubles (lengths of about 1e-2 m).
 constexpr double rounding = 1e-12;
 
-// REFERENCES.md check value 8: Q = 2000 W, a = 5, b = 4, c_f = 4, c_r = 10 mm.
+// A source for hand checks of Goldak, Chakravarti & Bibby (1984): Q = 2000 W, a = 5, b = 4,
+// c_f = 4, c_r = 10 mm.
 constexpr double power = 2000.0;
 SourceShape check_shape() {
     SourceShape s;
@@ -34,7 +35,8 @@ SourceShape check_shape() {
     s.rear_length = 10 * mm;
     return s;
 }
-constexpr double f_front = 0.5714, f_rear = 1.4286;  // check value 8
+// By hand from Goldak et al. (1984): f_f = 2c_f/(c_f + c_r) = 8/14, f_r = 2 − f_f = 20/14.
+constexpr double f_front = 0.5714, f_rear = 1.4286;
 
 // Flange 60 × 10 mm, web 8 × 30 mm, 40 mm weld, equal 6 mm legs.
 mesh::JointGeometry sample_joint() {
@@ -103,7 +105,8 @@ TorchPath tilted_path_at(Vec3 at) {
 TEST_CASE("peak density and decay along the semi-axes follow Goldak's formula", "[source]") {
     const Vec3 o{0.0, 0.0, 0.0};
     const DoubleEllipsoid source(still_path(o, {1, 0, 0}, {0, 1, 0}, {0, 0, 1}), check_shape(), power);
-    // Check value 8 (REFERENCES.md): q_max = 6√3·f_f·Q/(a·b·c_f·π^1.5) = 2.666e10 W/m³.
+    // By hand from Goldak, Chakravarti & Bibby (1984), the front-quadrant density at its centre:
+    // q_max = 6√3·f_f·Q/(a·b·c_f·π^1.5) = 10.392·0.5714·2000/(80e-9 m³·5.5683) = 2.666e10 W/m³.
     CHECK(source.density(o, 0.5) == Approx(2.666e10).epsilon(2e-4));
     // Continuity at ξ = 0 (f_f/c_f = f_r/c_r, Goldak 1984): the same peak from both sides.
     CHECK(source.density({-1e-12, 0, 0}, 0.5) == Approx(source.density({1e-12, 0, 0}, 0.5)).epsilon(1e-9));
@@ -158,7 +161,8 @@ TEST_CASE("over a half-space the raw integral is the net power, split f_f/2 : f_
     double front = 0.0;
     for (const CellPower& c : out)
         if (grid.x.centre(c.cell / cells.ns) > 0.0) front += c.watts;
-    // Derived: the front half carries f_f·Q/2 of the half-space's Q, the rear f_r·Q/2 (check value 8).
+    // Derived from Goldak et al. (1984): the front half carries f_f·Q/2 of the half-space's Q, the
+    // rear f_r·Q/2.
     CHECK(front / power == Approx(f_front / 2).epsilon(0.01));
     CHECK((power - front) / power == Approx(f_rear / 2).epsilon(0.01));
 }

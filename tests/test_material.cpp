@@ -4,7 +4,9 @@
 //  - EN 1993-1-2:2005 §3.4.1 (carbon steel): λ = 54 − 3.33·10⁻²θ (20–800 °C), 27.3 W/(m K) (800–1200 °C);
 //    c = 425 + 0.773θ − 1.69·10⁻³θ² + 2.22·10⁻⁶θ³ (20–600 °C), 666 + 13002/(738 − θ) (600–735 °C),
 //    545 + 17820/(θ − 731) (735–900 °C), 650 J/(kg K) (900–1200 °C); ρ = 7850 kg/m³ (§3.2.2)
-//    (as listed in the shared REFERENCES.md §7);
+//    (formulas confirmed, sub-clause numbers from memory);
+//  - solidus 1495 °C, liquidus 1540 °C, latent heat 277 kJ/kg: typical values for a C–Mn steel
+//    (from memory);
 //  - "hand computation": integrals of those formulas and other arithmetic done by hand (written out beside
 //    each check), with the project's documented extension: k and c held constant outside 20–1200 °C;
 //  - absolute zero −273.15 °C: definition of the Celsius scale, SI Brochure (from memory).
@@ -96,7 +98,8 @@ TEST_CASE("EN 1993-1-2 enthalpy differences match hand integration of c", "[mate
     const Material steel = make_en1993_steel({});
     // Hand computation from EN 1993-1-2 §3.4.1.2: ∫_20^600 (425 + 0.773θ − 1.69e-3θ² + 2.22e-6θ³) dθ
     //   = [425θ + 0.3865θ² − 5.6333e-4θ³ + 5.55e-7θ⁴]_20^600 = 335737.818 J/kg.
-    // The brief asks for 0.1 %; the trapezoidal rule on 1/16 K sub-steps is far inside that.
+    // The enthalpy table is required to within 0.1 %; the trapezoidal rule on 1/16 K sub-steps is
+    // far inside that.
     CHECK(steel.enthalpy(600) - steel.enthalpy(20) == relative(rho * 335737.818, 1e-6));
     // Hand computation across the 735 °C peak: ∫_600^735 (666 + 13002/(738 − θ)) dθ = 666·135 + 13002 ln(138/3)
     //   = 139689.995; ∫_735^900 (545 + 17820/(θ − 731)) dθ = 545·165 + 17820 ln(169/4) = 156636.030 J/kg.

@@ -6,7 +6,7 @@
 using namespace heatbead;
 
 TEST_CASE("Andrews (1965) Ac1 and Ac3", "[metallurgy]") {
-    // Shared REFERENCES check value 11, by hand: C 0.18, Mn 1.4, Si 0.3:
+    // By hand from Andrews, J. Iron Steel Inst. 203 (1965) 721, for C 0.18, Mn 1.4, Si 0.3:
     // Ac1 = 723 − 10.7·1.4 + 29.1·0.3 = 716.75 °C; Ac3 = 910 − 203·√0.18 + 44.7·0.3 = 837.28 °C.
     Composition c;
     c.C = 0.18, c.Mn = 1.4, c.Si = 0.3;

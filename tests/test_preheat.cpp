@@ -2,9 +2,8 @@
 // tee of a hardenable structural steel, coarse grid: each run well under a second).
 //
 // Sources, as cited beside each check:
-//  - EN 1011-2:2001 Annex D: t8/5 grows with the initial temperature T0 (both the 2-D and the 3-D
-//    formula) and with heat input, and falls with plate thickness until 3-D flow (shared REFERENCES
-//    §4);
+//  - EN 1011-2:2001 Annex D, the 2-D and 3-D cooling-time formulas: t8/5 grows with the initial
+//    temperature T0 and with heat input, and falls with plate thickness until 3-D flow;
 //  - HAZ hardness falls as t8/5 grows (the formulas of solver/weldability/haz_hardness.hpp, and common
 //    practice, no source);
 //  - so more preheat never raises the hardness, a thicker plate needs at least as much preheat at
@@ -65,15 +64,16 @@ TEST_CASE("the search finds the lowest passing preheat to the resolution", "[pre
     // The trial at the answer passes, the one a step below fails (what "lowest" means).
     bool at = false, below = false;
     for (const auto& t : a.trials) {
-        if (t.preheat == *a.found) at = t.passes && t.hardness <= 350;
+        if (t.preheat == *a.found) at = t.passes && t.hardness <= 350;  // the case's hardness limit
         if (t.preheat == *a.found - c.preheat_search.resolution) below = !t.passes;
     }
     CHECK(at);
     CHECK(below);
     // The same answer one run at a time (the batch only changes which candidates are tried).
     CHECK(*find_preheat(c, 1, 2, never_interrupted).found == *a.found);
-    // The standard's inputs come from the case: thicker plate 25 mm, H5 → 5 ml/100 g, and the
-    // EN 1011-1 heat input 0.8 × 26 V × 260 A / 5 mm/s = 1.0816 kJ/mm (hand computation).
+    // The standard's inputs come from the case: thicker plate 25 mm, H5 → 5 ml/100 g (the filler
+    // designation's upper limit, common practice, no source), and the EN 1011-1 heat input
+    // Q = k·U·I/v = 0.8 × 26 V × 260 A / 5 mm/s = 1.0816 kJ/mm (hand computation).
     CHECK(a.standard_input.thickness == Approx(25));
     CHECK(a.standard_input.hydrogen == Approx(5));
     CHECK(a.standard_input.heat_input == Approx(1.0816));

@@ -30,8 +30,9 @@ bool warns(const Case& c, const std::string& text) {
 }  // namespace
 
 TEST_CASE("heat input follows the EN 1011-1 definition", "[procedure]") {
-    // EN 1011-1: Q = k·U·I/v. Hand computation (shared REFERENCES check value 1):
-    // k = 0.8, U = 28 V, I = 250 A, v = 5 mm/s → 0.8·28·250/5 = 1120 J/mm = 1.12 kJ/mm.
+    // EN 1011-1:2009 (ISO/TR 17671-1): Q = k·U·I/v, arc energy U·I/v. Hand computation:
+    // k = 0.8, U = 28 V, I = 250 A, v = 5 mm/s → 0.8·28·250/5 = 1120 J/mm = 1.12 kJ/mm; arc energy
+    // 28·250/5 = 1400 J/mm.
     const Case c = with({"procedure.voltage=28", "procedure.current=250", "procedure.travel_speed=5"});
     CHECK(c.procedure.arc_efficiency == 0.8);  // EN 1011-1 factor for MIG/MAG
     CHECK(heat_input(c.procedure) * 1e-6 == Approx(1.12).epsilon(1e-12));
@@ -42,7 +43,7 @@ TEST_CASE("heat input follows the EN 1011-1 definition", "[procedure]") {
     saw.arc_efficiency = default_arc_efficiency(Process::saw).value;
     CHECK(heat_input(saw) * 1e-6 == Approx(1.40).epsilon(1e-12));
     CHECK(default_arc_efficiency(Process::smaw).value == 0.8);
-    // A given net power replaces k·U·I.
+    // A given net power replaces k·U·I (hand computation: 3000 W / 6 mm/s = 500 J/mm).
     const Case given = with({"procedure.net_power=3 kW", "procedure.travel_speed=6"});
     CHECK(heat_input(given.procedure) * 1e-6 == Approx(0.5).epsilon(1e-12));
 }
@@ -94,8 +95,8 @@ TEST_CASE("spray transition current rises with wire diameter", "[procedure]") {
 
 TEST_CASE("every process preset's arc efficiency is the EN 1011-1 factor", "[procedure]") {
     // EN 1011-1 (also ISO/TR 17671-1) thermal efficiency factor k: submerged arc 1.0; manual metal
-    // arc, MIG/MAG and flux-cored 0.8 (shared REFERENCES §4). Every gas-metal-arc transfer mode is
-    // MIG/MAG for the standard.
+    // arc, MIG/MAG and flux-cored 0.8 (EN 1011-1:2009 Table 1; table number from memory). Every
+    // gas-metal-arc transfer mode is MIG/MAG for the standard.
     CHECK(default_arc_efficiency(Process::saw).value == 1.0);
     CHECK(default_arc_efficiency(Process::smaw).value == 0.8);
     CHECK(default_arc_efficiency(Process::fcaw).value == 0.8);
@@ -161,7 +162,10 @@ TEST_CASE("spray's source is deeper and more concentrated than short-circuit's f
 }
 
 TEST_CASE("EN 1993-1-2 carbon steel properties", "[material]") {
-    // Hand-computed from EN 1993-1-2:2005 §3.4.1 (shared REFERENCES check value 9).
+    // Hand-computed from EN 1993-1-2:2005 §3.4.1.3 (λ = 54 − 3.33e-2·400 = 40.68; 27.3 above 800 °C)
+    // and §3.4.1.2 (c(20) = 425 + 15.46 − 0.676 + 0.01776 = 439.8; c(600) = 666 + 13002/138 = 760.2;
+    // c(700) = 666 + 13002/38 = 1008.2; c(735) = 545 + 17820/4 = 5000; c(900) = 545 + 17820/169
+    // = 650.4; 650 above 900 °C). Sub-clause numbers from memory.
     CHECK(en1993::conductivity(400) == Approx(40.68).epsilon(1e-9));
     CHECK(en1993::conductivity(900) == Approx(27.3));
     CHECK(en1993::specific_heat(20) == Approx(439.8).margin(0.05));

@@ -1,5 +1,6 @@
-// Cooling figures of a thermal cycle, against the thick-plate cooling law of Rosenthal (1946):
-// behind a fast line of heat, T − T0 = (q/v) / (2πk·t), which gives (shared REFERENCES §2)
+// Cooling figures of a thermal cycle, against the thick-plate cooling law of Rosenthal, Trans. ASME
+// 68 (1946) 849 (the law from memory; it follows from his point source on the weld axis): behind a
+// fast line of heat, T − T0 = (q/v) / (2πk·t), which gives
 //   t8/5 = (q/v)/(2πk) · [1/(500 − T0) − 1/(800 − T0)],   cooling rate at T: 2πk (T − T0)² / (q/v).
 #include "post/section_history.hpp"
 
@@ -23,7 +24,7 @@ TEST_CASE("cycle figures match the thick-plate cooling law", "[cycles]") {
     // Hand computation: a = 5305.2 K·s; t8/5 = a (1/480 − 1/780) = 4.251 s.
     CHECK(f.t8_5 == Approx(a * (1.0 / 480 - 1.0 / 780)).epsilon(1e-4));
     CHECK(f.t8_3 == Approx(a * (1.0 / 280 - 1.0 / 780)).epsilon(1e-4));
-    // Shared REFERENCES check value 7: 51.0 °C/s at 540 °C for k = 30 W/(m K), q/v = 1000 J/mm.
+    // By hand from the law: 2π·30·520²/10⁶ = 51.0 °C/s at 540 °C for k = 30 W/(m K), q/v = 1000 J/mm.
     CHECK(f.rate_540 == Approx(2 * std::numbers::pi * k * 520 * 520 / q_per_v).epsilon(1e-3));
     CHECK(f.rate_540 == Approx(51.0).epsilon(2e-3));
     // The same law at 700 °C: 2πk (700 − T0)² / (q/v).
@@ -39,5 +40,5 @@ TEST_CASE("a cycle that never reaches 800 degC has no t8/5", "[cycles]") {
     const CycleFigures f = cycle_figures(t, T, 720);
     CHECK(std::isnan(f.t8_5));
     CHECK(f.time_above_ac1 == 0);
-    CHECK(f.rate_540 == Approx(200));
+    CHECK(f.rate_540 == Approx(200));  // by hand: 600 → 400 °C over the second that passes 540 °C
 }

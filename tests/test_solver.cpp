@@ -80,8 +80,9 @@ double convective_error(const ConvectiveProblem& pb, std::size_t n, Integrator& 
 }  // namespace
 
 TEST_CASE("surface convection matches the erfc solution and converges at second order", "[solver]") {
-    // Semi-infinite solid with a convective surface: Carslaw & Jaeger (1959) §2.7; any heat-transfer
-    // textbook (e.g. Incropera, transient conduction). tests/analytic/conduction_1d.
+    // Semi-infinite solid with a convective surface: Carslaw & Jaeger, Conduction of Heat in Solids,
+    // 2nd ed. (1959) §2.7 (section from memory); any heat-transfer textbook has it under transient
+    // conduction. tests/analytic/conduction_1d.
     ConvectiveProblem pb;
     ExplicitEuler euler(400);
     const double e1 = convective_error(pb, 50, euler, 1e9);   // 0.4 mm
@@ -96,7 +97,7 @@ TEST_CASE("surface convection matches the erfc solution and converges at second 
 
 TEST_CASE("time integrators converge at their order", "[solver]") {
     // Same problem; reference = rkl2 with a tiny step. Forward Euler is first order, RKL2 second
-    // order (Meyer, Balsara & Aslam 2014).
+    // order (Meyer, Balsara & Aslam, J. Comput. Phys. 257 (2014) 594, from memory).
     ConvectiveProblem pb;
     pb.t_end = 2;
     const std::size_t n = 100;
@@ -130,7 +131,7 @@ TEST_CASE("time integrators converge at their order", "[solver]") {
 
 TEST_CASE("melting front follows Neumann's solution", "[solver]") {
     // Two-phase Stefan problem, semi-infinite solid melted from a surface held above T_m
-    // (Carslaw & Jaeger 1959 §11.2; tests/analytic NeumannMelting). The surface is held by a very
+    // (Carslaw & Jaeger 1959 §11.2, from memory; tests/analytic NeumannMelting). The surface is held by a very
     // large convection coefficient; the latent heat is spread over a 10 K mushy range centred on
     // T_m. Front = depth where T crosses T_m, interpolated between cell centres.
     // Heat reaches about 4√(αt) ≈ 10 mm in the time simulated; the column is 20 mm deep.

@@ -268,7 +268,7 @@ TEST_CASE("unit names and dimensions", "[units]") {
     }
 }
 
-// The messages are the ones the project brief asks for: self-contained, quoting the text, listing units.
+// The messages follow the project's rule for errors: self-contained, quoting the text, listing units.
 TEST_CASE("errors quote the text and list the accepted units", "[units]") {
     using enum Dimension;
     const auto length_units = Contains("mm, cm, m, in, ft");

@@ -1,55 +1,32 @@
 #include "solver/app/check.hpp"
 
 #include "mesh/grid.hpp"
+#include "post/cautions.hpp"
+#include "solver/core/text.hpp"
 #include "solver/studies/preheat_search.hpp"
 #include "solver/studies/run_setup.hpp"
 
 #include <algorithm>
 #include <cmath>
-#include <cstdarg>
-#include <cstdio>
 
 namespace heatbead {
 
-const char* const planning_caution =
-    "Predictions are estimates for planning. Fusion, soundness, hardness and preheat are proven by "
-    "procedure qualification (macro-etch, hardness survey) under the governing welding code.";
-
 namespace {
 
-std::string vformat(const char* format, va_list args) {
-    char buf[512];
-    std::vsnprintf(buf, sizeof buf, format, args);
-    return buf;
-}
-
-std::string fmt(const char* format, ...) {
-    va_list args;
-    va_start(args, format);
-    std::string s = vformat(format, args);
-    va_end(args);
-    return s;
-}
-
-// One line of the report: fmt() plus the newline.
+// One line of the report: format_text() plus the newline.
 template <class... Args>
 std::string line(const char* format, Args... args) {
-    return fmt(format, args...) + "\n";
+    return format_text(format, args...) + "\n";
 }
 
 std::string human_bytes(double b) {
-    char buf[32];
-    if (b >= 1e9) std::snprintf(buf, sizeof buf, "%.2f GB", b / 1e9);
-    else std::snprintf(buf, sizeof buf, "%.0f MB", b / 1e6);
-    return buf;
+    return b >= 1e9 ? format_text("%.2f GB", b / 1e9) : format_text("%.0f MB", b / 1e6);
 }
 
 std::string human_seconds(double s) {
-    char buf[32];
-    if (s < 120) std::snprintf(buf, sizeof buf, "%.0f s", s);
-    else if (s < 7200) std::snprintf(buf, sizeof buf, "%.0f min", s / 60);
-    else std::snprintf(buf, sizeof buf, "%.1f h", s / 3600);
-    return buf;
+    if (s < 120) return format_text("%.0f s", s);
+    if (s < 7200) return format_text("%.0f min", s / 60);
+    return format_text("%.1f h", s / 3600);
 }
 
 std::string_view face_word(mesh::FaceShape f) {
@@ -95,8 +72,8 @@ std::string to_text(const CheckReport& r) {
     out += line("Bead        legs %.1f mm (flange) x %.1f mm (web), %s face; area %.1f mm2, design throat %.2f mm",
                 j.leg_flange * 1e3, j.leg_web * 1e3, std::string(face_word(j.face)).c_str(), r.bead_area * 1e6,
                 r.design_throat * 1e3);
-    std::string wire = p.wire_diameter > 0 ? fmt("%.1f mm wire", p.wire_diameter * 1e3) : "no wire data";
-    if (p.wire_feed_speed) wire += fmt(" at %.1f m/min", *p.wire_feed_speed * 60);
+    std::string wire = p.wire_diameter > 0 ? format_text("%.1f mm wire", p.wire_diameter * 1e3) : "no wire data";
+    if (p.wire_feed_speed) wire += format_text(" at %.1f m/min", *p.wire_feed_speed * 60);
     out += line("Procedure   %s %s, %s, %.0f A, %.1f V, %.2f mm/s, %s", std::string(to_string(p.process)).c_str(),
                 std::string(to_string(p.transfer)).c_str(), wire.c_str(), p.current,
                 p.voltage, p.travel_speed * 1e3, std::string(to_string(p.position)).c_str());
@@ -108,7 +85,7 @@ std::string to_text(const CheckReport& r) {
         out += line("Deposition  %.1f mm2 per length = equal-leg fillet %.1f mm (asked %.1f mm, %+.0f %%)",
                     d.area * 1e6, d.equal_leg * 1e3, d.asked_leg * 1e3, d.difference * 100);
     } else {
-        out += line("Deposition  not computed: needs wire_feed and wire_diameter");
+        out += "Deposition  not computed: needs wire_feed and wire_diameter\n";
     }
     out += line("Source      Goldak a %.1f, b %.1f, c_f %.1f, c_r %.1f mm (%s)", c.source.half_width * 1e3,
                 c.source.depth * 1e3, c.source.front_length * 1e3, c.source.rear_length * 1e3, c.source.rule.c_str());
@@ -134,7 +111,7 @@ std::string to_text(const CheckReport& r) {
         out += "Warnings\n";
         for (const auto& w : c.warnings) out += "  - " + w + "\n";
     }
-    out += line("Caution     %s", planning_caution);
+    out += line("Caution     %s", post::planning_caution);
     return out;
 }
 
@@ -186,7 +163,7 @@ nlohmann::json to_json(const CheckReport& r) {
                                    {"outside_validity", sp->outside_validity}};
     }
     out["warnings"] = c.warnings;
-    out["caution"] = planning_caution;
+    out["caution"] = post::planning_caution;
     return out;
 }
 

@@ -39,7 +39,4 @@ std::string to_text(const CheckReport& r);
 // The same figures as JSON, each with its unit.
 nlohmann::json to_json(const CheckReport& r);
 
-// The caution shown wherever results could be taken as a qualified procedure.
-extern const char* const planning_caution;
-
 }  // namespace heatbead

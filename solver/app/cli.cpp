@@ -81,78 +81,181 @@ int check_command(const CommonOptions& o, bool resolved) {
     return exit_code::ok;
 }
 
+// Each subcommand: its node in the parser and the values its options fill in. CLI11 keeps the
+// addresses of those values, so they stay where they are declared.
+struct CheckArgs {
+    CLI::App* command = nullptr;
+    CommonOptions options;
+    bool resolved = false;
+};
+// A command on one case: the options every case command has, and the command's own.
+template <class Extra>
+struct CaseCommandArgs {
+    CLI::App* command = nullptr;
+    CommonOptions options;
+    Extra extra;
+    // The command's own options, with --out and --quiet taken from the common ones.
+    const Extra& command_options() {
+        extra.out_dir = options.out_dir;
+        extra.quiet = options.quiet;
+        return extra;
+    }
+};
+using RunArgs = CaseCommandArgs<RunOptions>;
+using PreheatArgs = CaseCommandArgs<PreheatOptions>;
+using FitArgs = CaseCommandArgs<FitOptions>;
+struct CompareArgs {
+    CLI::App* command = nullptr;
+    std::vector<std::string> cases, sets;
+    CompareOptions extra;
+    bool no_preheat = false;
+};
+struct SweepArgs {
+    CLI::App* command = nullptr;
+    CLI::App* merge = nullptr;
+    std::string file, shard;
+    SweepOptions extra;
+    std::string merge_out;
+    std::vector<std::string> merge_dirs;
+};
+struct BenchArgs {
+    CLI::App* command = nullptr;
+    BenchOptions options;
+    std::string sweep;
+};
+struct Subcommands {
+    CheckArgs check;
+    RunArgs run;
+    PreheatArgs preheat;
+    CompareArgs compare;
+    SweepArgs sweep;
+    FitArgs fit;
+    BenchArgs bench;
+};
+
+// --jobs and --threads of the commands that run several cases at a time.
+void add_parallel_options(CLI::App& cmd, int& jobs, int& threads) {
+    cmd.add_option("--jobs", jobs, "runs at a time (default: one per core)")->check(CLI::Range(1, 256));
+    cmd.add_option("--threads", threads, "OpenMP threads per run (default: cores / jobs)")->check(CLI::Range(1, 1024));
+}
+
+void declare_check(CLI::App& app, CheckArgs& a) {
+    a.command = app.add_subcommand("check", "validate a case and print the quantities to check before a run");
+    add_case_options(*a.command, a.options);
+    a.command->add_option("--format", a.options.format, "output format of the summary")
+        ->check(CLI::IsMember({"text", "json"}));
+    a.command->add_flag("--resolved", a.resolved, "print the resolved case (every default filled in) as TOML");
+}
+
+void declare_run(CLI::App& app, RunArgs& a) {
+    a.command = app.add_subcommand("run", "simulate the pass and the cooling after it; write results");
+    add_case_options(*a.command, a.options);
+    a.command->add_option("--threads", a.extra.threads, "OpenMP threads (default: all cores)")->check(CLI::Range(1, 1024));
+}
+
+void declare_preheat(CLI::App& app, PreheatArgs& a) {
+    a.command = app.add_subcommand("preheat", "find the lowest preheat that keeps the HAZ within the limits of "
+                                              "[preheat_search], beside the EN 1011-2 method B value");
+    add_case_options(*a.command, a.options);
+    add_parallel_options(*a.command, a.extra.jobs, a.extra.threads);
+}
+
+void declare_compare(CLI::App& app, CompareArgs& a) {
+    auto* c = a.command = app.add_subcommand("compare", "run procedures for the same joint and set them side by side");
+    c->add_option("cases", a.cases, "two or more case files (TOML) for the same joint")->required()->expected(2, 64);
+    c->add_option("--set", a.sets, "override a case key in every case (repeatable)")->type_size(1)->allow_extra_args(false);
+    c->add_option("--out", a.extra.out_dir, "folder for the files written")->capture_default_str();
+    c->add_flag("--quiet", a.extra.quiet, "print nothing but errors");
+    c->add_flag("--no-preheat", a.no_preheat, "skip the preheat search of cases with a composition and hydrogen");
+    add_parallel_options(*c, a.extra.jobs, a.extra.threads);
+}
+
+void declare_sweep(CLI::App& app, SweepArgs& a) {
+    auto* s = a.command = app.add_subcommand("sweep", "run every point of a sweep file; resumable; local workers, MPI or shards");
+    s->add_option("sweep", a.file, "sweep file (TOML)");
+    s->add_option("--out", a.extra.out_dir, "folder for the table, report and points (default results/<sweep>)");
+    s->add_option("--jobs", a.extra.jobs, "worker processes (default 1)")->check(CLI::Range(1, 256));
+    s->add_option("--threads", a.extra.threads, "OpenMP threads per point (default: cores / jobs)")->check(CLI::Range(1, 1024));
+    s->add_option("--shard", a.shard, "only points i, i+n, i+2n, ... (i/n with 0 <= i < n), for job arrays");
+    s->add_flag("--quiet", a.extra.quiet, "print nothing but errors");
+    a.merge = s->add_subcommand("merge", "join the folders of a sharded sweep into one table");
+    a.merge->add_option("out", a.merge_out, "folder for the joined table")->required();
+    a.merge->add_option("shards", a.merge_dirs, "the shards' --out folders")->required();
+    s->require_subcommand(0, 1);
+}
+
+void declare_fit(CLI::App& app, FitArgs& a) {
+    a.command = app.add_subcommand("fit", "calibrate the heat source to a measured macro-section or thermocouple trace");
+    add_case_options(*a.command, a.options);
+    a.command->add_option("--measured", a.extra.measured, "the measurement file (TOML)")->required();
+    add_parallel_options(*a.command, a.extra.jobs, a.extra.threads);
+}
+
+void declare_bench(CLI::App& app, BenchArgs& a) {
+    a.command = app.add_subcommand("bench", "measure speed on the reference case (ratios from one run)");
+    a.command->add_option("case", a.options.case_path, "reference case file")->capture_default_str();
+    a.command->add_flag("--quick", a.options.quick, "small grids: checks the benchmark runs, figures not meaningful");
+    a.command->add_option("--sweep", a.sweep, "instead: cases per hour of this sweep with 1 and 2 worker processes");
+}
+
+int sweep_from_command_line(SweepArgs& a) {
+    if (a.file.empty()) {
+        std::cerr << "heatbead sweep: give a sweep file, or `merge OUT DIR...`\n";
+        return exit_code::bad_input;
+    }
+    if (!a.shard.empty()) {
+        try {
+            a.extra.shard = parse_shard(a.shard);
+        } catch (const std::invalid_argument& e) {
+            std::cerr << "heatbead: " << e.what() << "\n";
+            return exit_code::bad_input;
+        }
+    }
+    if (a.extra.threads == 0) {
+        const int cores = static_cast<int>(std::max(1u, std::thread::hardware_concurrency()));
+        a.extra.threads = std::max(1, cores / a.extra.jobs);
+    }
+    return sweep_command(a.file, a.extra);
+}
+
+// The one subcommand parsed (merge before sweep: `sweep merge` parses both).
+int dispatch(Subcommands& s) {
+    if (s.check.command->parsed()) return check_command(s.check.options, s.check.resolved);
+    if (s.bench.command->parsed()) {
+        return s.bench.sweep.empty() ? bench_command(s.bench.options) : bench_sweep_command(s.bench.sweep);
+    }
+    if (s.preheat.command->parsed()) return preheat_command(load(s.preheat.options), s.preheat.command_options());
+    if (s.compare.command->parsed()) {
+        s.compare.extra.preheat = !s.compare.no_preheat;
+        return compare_command(load_all(s.compare.cases, s.compare.sets), s.compare.extra);
+    }
+    if (s.fit.command->parsed()) return fit_command(load(s.fit.options), s.fit.command_options());
+    if (s.sweep.merge->parsed()) return sweep_merge_command(s.sweep.merge_out, s.sweep.merge_dirs, s.sweep.extra.quiet);
+    if (s.sweep.command->parsed()) return sweep_from_command_line(s.sweep);
+    if (s.run.command->parsed()) return run_command(load(s.run.options), s.run.command_options());
+    return exit_code::ok;
+}
+
+void print_case_problems(const CaseError& e) {
+    const auto& d = e.diagnostics();
+    std::cerr << "heatbead: " << d.size() << (d.size() == 1 ? " problem" : " problems")
+              << " in the case; nothing was computed or written:\n";
+    for (const auto& item : d) std::cerr << "  " << item.text() << "\n";
+}
+
 }  // namespace
 
 int run_command_line(int argc, char** argv) {
     CLI::App app{"heatbead: heat flow of one arc-welding pass on a fillet-welded tee joint"};
     app.require_subcommand(1);
-    CommonOptions options;
-    bool resolved = false;
-    auto* check = app.add_subcommand("check", "validate a case and print the quantities to check before a run");
-    add_case_options(*check, options);
-    check->add_option("--format", options.format, "output format of the summary")->check(CLI::IsMember({"text", "json"}));
-    check->add_flag("--resolved", resolved, "print the resolved case (every default filled in) as TOML");
-
-    auto* run = app.add_subcommand("run", "simulate the pass and the cooling after it; write results");
-    CommonOptions run_options;
-    RunOptions run_extra;
-    add_case_options(*run, run_options);
-    run->add_option("--threads", run_extra.threads, "OpenMP threads (default: all cores)")->check(CLI::Range(1, 1024));
-
-    auto* preheat = app.add_subcommand("preheat", "find the lowest preheat that keeps the HAZ within the limits of "
-                                                  "[preheat_search], beside the EN 1011-2 method B value");
-    CommonOptions preheat_options;
-    PreheatOptions preheat_extra;
-    add_case_options(*preheat, preheat_options);
-    preheat->add_option("--jobs", preheat_extra.jobs, "runs at a time (default: one per core)")->check(CLI::Range(1, 256));
-    preheat->add_option("--threads", preheat_extra.threads, "OpenMP threads per run (default: cores / jobs)")
-        ->check(CLI::Range(1, 1024));
-
-    auto* compare = app.add_subcommand("compare", "run procedures for the same joint and set them side by side");
-    std::vector<std::string> compare_cases, compare_sets;
-    CompareOptions compare_extra;
-    bool no_preheat = false;
-    compare->add_option("cases", compare_cases, "two or more case files (TOML) for the same joint")->required()->expected(2, 64);
-    compare->add_option("--set", compare_sets, "override a case key in every case (repeatable)")->type_size(1)->allow_extra_args(false);
-    compare->add_option("--out", compare_extra.out_dir, "folder for the files written")->capture_default_str();
-    compare->add_flag("--quiet", compare_extra.quiet, "print nothing but errors");
-    compare->add_flag("--no-preheat", no_preheat, "skip the preheat search of cases with a composition and hydrogen");
-    compare->add_option("--jobs", compare_extra.jobs, "runs at a time (default: one per core)")->check(CLI::Range(1, 256));
-    compare->add_option("--threads", compare_extra.threads, "OpenMP threads per run (default: cores / jobs)")
-        ->check(CLI::Range(1, 1024));
-
-    auto* sweep = app.add_subcommand("sweep", "run every point of a sweep file; resumable; local workers, MPI or shards");
-    std::string sweep_file, shard_text;
-    SweepOptions sweep_extra;
-    sweep->add_option("sweep", sweep_file, "sweep file (TOML)");
-    sweep->add_option("--out", sweep_extra.out_dir, "folder for the table, report and points (default results/<sweep>)");
-    sweep->add_option("--jobs", sweep_extra.jobs, "worker processes (default 1)")->check(CLI::Range(1, 256));
-    sweep->add_option("--threads", sweep_extra.threads, "OpenMP threads per point (default: cores / jobs)")
-        ->check(CLI::Range(1, 1024));
-    sweep->add_option("--shard", shard_text, "only points i, i+n, i+2n, ... (i/n with 0 <= i < n), for job arrays");
-    sweep->add_flag("--quiet", sweep_extra.quiet, "print nothing but errors");
-    auto* merge = sweep->add_subcommand("merge", "join the folders of a sharded sweep into one table");
-    std::string merge_out;
-    std::vector<std::string> merge_dirs;
-    merge->add_option("out", merge_out, "folder for the joined table")->required();
-    merge->add_option("shards", merge_dirs, "the shards' --out folders")->required();
-    sweep->require_subcommand(0, 1);
-
-    auto* fit = app.add_subcommand("fit", "calibrate the heat source to a measured macro-section or thermocouple trace");
-    CommonOptions fit_options;
-    FitOptions fit_extra;
-    add_case_options(*fit, fit_options);
-    fit->add_option("--measured", fit_extra.measured, "the measurement file (TOML)")->required();
-    fit->add_option("--jobs", fit_extra.jobs, "runs at a time (default: one per core)")->check(CLI::Range(1, 256));
-    fit->add_option("--threads", fit_extra.threads, "OpenMP threads per run (default: cores / jobs)")->check(CLI::Range(1, 1024));
-
-    auto* bench = app.add_subcommand("bench", "measure speed on the reference case (ratios from one run)");
-    BenchOptions bench_options;
-    bench->add_option("case", bench_options.case_path, "reference case file")->capture_default_str();
-    bench->add_flag("--quick", bench_options.quick, "small grids: checks the benchmark runs, figures not meaningful");
-    std::string bench_sweep;
-    bench->add_option("--sweep", bench_sweep, "instead: cases per hour of this sweep with 1 and 2 worker processes");
-
+    Subcommands s;
+    declare_check(app, s.check);
+    declare_run(app, s.run);
+    declare_preheat(app, s.preheat);
+    declare_compare(app, s.compare);
+    declare_sweep(app, s.sweep);
+    declare_fit(app, s.fit);
+    declare_bench(app, s.bench);
     try {
         app.parse(argc, argv);
     } catch (const CLI::ParseError& e) {
@@ -160,58 +263,14 @@ int run_command_line(int argc, char** argv) {
         return code == 0 ? exit_code::ok : exit_code::bad_input;
     }
     try {
-        if (check->parsed()) return check_command(options, resolved);
-        if (bench->parsed()) return bench_sweep.empty() ? bench_command(bench_options) : bench_sweep_command(bench_sweep);
-        if (preheat->parsed()) {
-            preheat_extra.out_dir = preheat_options.out_dir;
-            preheat_extra.quiet = preheat_options.quiet;
-            return preheat_command(load(preheat_options), preheat_extra);
-        }
-        if (compare->parsed()) {
-            compare_extra.preheat = !no_preheat;
-            return compare_command(load_all(compare_cases, compare_sets), compare_extra);
-        }
-        if (fit->parsed()) {
-            fit_extra.out_dir = fit_options.out_dir;
-            fit_extra.quiet = fit_options.quiet;
-            return fit_command(load(fit_options), fit_extra);
-        }
-        if (merge->parsed()) return sweep_merge_command(merge_out, merge_dirs, sweep_extra.quiet);
-        if (sweep->parsed()) {
-            if (sweep_file.empty()) {
-                std::cerr << "heatbead sweep: give a sweep file, or `merge OUT DIR...`\n";
-                return exit_code::bad_input;
-            }
-            if (!shard_text.empty()) {
-                try {
-                    sweep_extra.shard = parse_shard(shard_text);
-                } catch (const std::invalid_argument& e) {
-                    std::cerr << "heatbead: " << e.what() << "\n";
-                    return exit_code::bad_input;
-                }
-            }
-            if (sweep_extra.threads == 0) {
-                const int cores = static_cast<int>(std::max(1u, std::thread::hardware_concurrency()));
-                sweep_extra.threads = std::max(1, cores / sweep_extra.jobs);
-            }
-            return sweep_command(sweep_file, sweep_extra);
-        }
-        if (run->parsed()) {
-            run_extra.out_dir = run_options.out_dir;
-            run_extra.quiet = run_options.quiet;
-            return run_command(load(run_options), run_extra);
-        }
+        return dispatch(s);
     } catch (const CaseError& e) {
-        const auto& d = e.diagnostics();
-        std::cerr << "heatbead: " << d.size() << (d.size() == 1 ? " problem" : " problems")
-                  << " in the case; nothing was computed or written:\n";
-        for (const auto& item : d) std::cerr << "  " << item.text() << "\n";
+        print_case_problems(e);
         return exit_code::bad_input;
     } catch (const std::exception& e) {
         std::cerr << "heatbead: " << e.what() << "\n";
         return exit_code::run_failed;
     }
-    return exit_code::ok;
 }
 
 }  // namespace heatbead

@@ -3,9 +3,11 @@
 #include "solver/app/interrupt.hpp"
 
 #include "post/atomic_file.hpp"
+#include "post/cautions.hpp"
 #include "post/compare_report.hpp"
 #include "solver/core/exit_codes.hpp"
 #include "solver/core/parallel_tasks.hpp"
+#include "solver/core/text.hpp"
 #include "solver/studies/preheat_search.hpp"
 #include "solver/physics/procedure.hpp"
 #include "solver/studies/run_analysis.hpp"
@@ -30,19 +32,10 @@ namespace heatbead {
 
 namespace {
 
-const char* const compare_caution =
-    "Estimates for planning, not a qualified procedure. Which procedure fuses the root and both plates, and at "
-    "what preheat, is proven by procedure qualification (macro-etch, hardness survey) under the governing welding "
-    "code; the source shapes are rules of thumb until calibrated against a macro-section.";
-
 constexpr double nan = std::numeric_limits<double>::quiet_NaN();
 
-std::string fmt(const char* format, double v) {
-    if (!std::isfinite(v)) return "n/a";
-    char buf[64];
-    std::snprintf(buf, sizeof buf, format, v);
-    return buf;
-}
+// A figure, or "n/a" where the runs gave none (NaN).
+std::string or_na(const char* format, double v) { return std::isfinite(v) ? format_text(format, v) : "n/a"; }
 
 // One case's run and what it means.
 struct Outcome {
@@ -97,9 +90,11 @@ Figures figures_of(const Outcome& o) {
     return f;
 }
 
-// The table: one row per quantity, one cell per case.
-std::vector<std::pair<std::string, std::vector<std::string>>> table(const std::vector<Outcome>& outcomes) {
-    std::vector<std::pair<std::string, std::vector<std::string>>> rows;
+// The table: one row per quantity (its label, then one cell per case), as the report page takes it.
+using Rows = decltype(post::CompareReportInput::rows);
+
+Rows table(const std::vector<Outcome>& outcomes) {
+    Rows rows;
     const auto row = [&](std::string label, auto cell) {
         std::vector<std::string> cells;
         for (const auto& o : outcomes) cells.push_back(cell(o, figures_of(o)));
@@ -108,36 +103,36 @@ std::vector<std::pair<std::string, std::vector<std::string>>> table(const std::v
     row("procedure", [](const Outcome& o, const Figures&) {
         const auto& p = o.c->procedure;
         return std::string(to_string(p.process)) + (p.transfer == Transfer::none ? "" : " " + std::string(to_string(p.transfer))) +
-               ", " + fmt("%.0f A", p.current) + ", " + fmt("%.1f V", p.voltage) + ", " + fmt("%.1f mm/s", p.travel_speed * 1e3);
+               ", " + or_na("%.0f A", p.current) + ", " + or_na("%.1f V", p.voltage) + ", " + or_na("%.1f mm/s", p.travel_speed * 1e3);
     });
-    row("heat input", [](const Outcome&, const Figures& f) { return fmt("%.3f kJ/mm", f.heat_input); });
-    row("deposited area", [](const Outcome&, const Figures& f) { return fmt("%.1f mm2", f.deposited); });
+    row("heat input", [](const Outcome&, const Figures& f) { return or_na("%.3f kJ/mm", f.heat_input); });
+    row("deposited area", [](const Outcome&, const Figures& f) { return or_na("%.1f mm2", f.deposited); });
     row("legs asked (flange x web)", [](const Outcome& o, const Figures&) {
-        return fmt("%.1f", o.c->joint.leg_flange * 1e3) + " x " + fmt("%.1f mm", o.c->joint.leg_web * 1e3);
+        return or_na("%.1f", o.c->joint.leg_flange * 1e3) + " x " + or_na("%.1f mm", o.c->joint.leg_web * 1e3);
     });
-    row("fused legs (flange x web)", [](const Outcome&, const Figures& f) { return fmt("%.1f", f.leg_flange) + " x " + fmt("%.1f mm", f.leg_web); });
-    row("penetration into flange", [](const Outcome&, const Figures& f) { return fmt("%.2f mm", f.pen_flange); });
-    row("penetration into web", [](const Outcome&, const Figures& f) { return fmt("%.2f mm", f.pen_web); });
-    row("fusion past the root", [](const Outcome&, const Figures& f) { return fmt("%.2f mm", f.past_root); });
+    row("fused legs (flange x web)", [](const Outcome&, const Figures& f) { return or_na("%.1f", f.leg_flange) + " x " + or_na("%.1f mm", f.leg_web); });
+    row("penetration into flange", [](const Outcome&, const Figures& f) { return or_na("%.2f mm", f.pen_flange); });
+    row("penetration into web", [](const Outcome&, const Figures& f) { return or_na("%.2f mm", f.pen_web); });
+    row("fusion past the root", [](const Outcome&, const Figures& f) { return or_na("%.2f mm", f.past_root); });
     row("root fused", [](const Outcome&, const Figures& f) { return std::string(f.root_fused ? "yes" : "NO"); });
-    row("fused area, dilution", [](const Outcome&, const Figures& f) { return fmt("%.1f mm2", f.fused) + ", " + fmt("%.0f %%", f.dilution); });
-    row("HAZ width (flange, web)", [](const Outcome&, const Figures& f) { return fmt("%.2f", f.haz_flange) + ", " + fmt("%.2f mm", f.haz_web); });
-    row("t8/5 at the HAZ probes", [](const Outcome&, const Figures& f) { return fmt("%.2f", f.t85_lo) + "-" + fmt("%.2f s", f.t85_hi); });
-    row("fastest cooling at 540 degC", [](const Outcome&, const Figures& f) { return fmt("%.0f K/s", f.rate_540); });
-    row("peak at the HAZ probes", [](const Outcome&, const Figures& f) { return fmt("%.0f", f.peak_lo) + "-" + fmt("%.0f degC", f.peak_hi); });
-    row("HAZ hardness (max)", [](const Outcome&, const Figures& f) { return fmt("%.0f HV", f.hardness); });
+    row("fused area, dilution", [](const Outcome&, const Figures& f) { return or_na("%.1f mm2", f.fused) + ", " + or_na("%.0f %%", f.dilution); });
+    row("HAZ width (flange, web)", [](const Outcome&, const Figures& f) { return or_na("%.2f", f.haz_flange) + ", " + or_na("%.2f mm", f.haz_web); });
+    row("t8/5 at the HAZ probes", [](const Outcome&, const Figures& f) { return or_na("%.2f", f.t85_lo) + "-" + or_na("%.2f s", f.t85_hi); });
+    row("fastest cooling at 540 degC", [](const Outcome&, const Figures& f) { return or_na("%.0f K/s", f.rate_540); });
+    row("peak at the HAZ probes", [](const Outcome&, const Figures& f) { return or_na("%.0f", f.peak_lo) + "-" + or_na("%.0f degC", f.peak_hi); });
+    row("HAZ hardness (max)", [](const Outcome&, const Figures& f) { return or_na("%.0f HV", f.hardness); });
     row("lowest preheat (simulation)", [](const Outcome& o, const Figures& f) {
         if (!o.preheat) return std::string("not searched");
-        return o.preheat->found ? fmt("%.0f degC", f.preheat) : "none up to " + fmt("%.0f degC", o.c->preheat_search.highest);
+        return o.preheat->found ? or_na("%.0f degC", f.preheat) : "none up to " + or_na("%.0f degC", o.c->preheat_search.highest);
     });
     row("preheat EN 1011-2 method B", [](const Outcome& o, const Figures& f) {
-        return o.preheat ? fmt("%.0f degC", f.standard) : std::string("not computed");
+        return o.preheat ? or_na("%.0f degC", f.standard) : std::string("not computed");
     });
-    row("run time", [](const Outcome& o, const Figures&) { return fmt("%.1f s", o.wall); });
+    row("run time", [](const Outcome& o, const Figures&) { return or_na("%.1f s", o.wall); });
     return rows;
 }
 
-std::string percent_more(double a, double b) { return fmt("%.0f %%", 100 * (a / b - 1)); }
+std::string percent_more(double a, double b) { return or_na("%.0f %%", 100 * (a / b - 1)); }
 
 // The differences of each case against the first, in words a welder uses.
 std::vector<std::string> differences(const std::vector<Outcome>& outcomes) {
@@ -154,7 +149,7 @@ std::vector<std::string> differences(const std::vector<Outcome>& outcomes) {
         const auto deeper = [&](double fb, double fa, const char* where) {
             const double d = fb - fa;
             if (!std::isfinite(d) || std::abs(d) < 0.05) return std::string();
-            return b + " fuses " + fmt("%.1f mm", std::abs(d)) + (d > 0 ? " deeper " : " less deep ") + where + " than " + a;
+            return b + " fuses " + or_na("%.1f mm", std::abs(d)) + (d > 0 ? " deeper " : " less deep ") + where + " than " + a;
         };
         for (const auto& s : {deeper(f.pen_flange, base.pen_flange, "into the flange"),
                               deeper(f.pen_web, base.pen_web, "into the web"),
@@ -166,18 +161,18 @@ std::vector<std::string> differences(const std::vector<Outcome>& outcomes) {
         }
         if (std::abs(f.heat_input / base.heat_input - 1) >= 0.03) {
             out.push_back(b + "'s heat input is " + percent_more(std::max(f.heat_input, base.heat_input), std::min(f.heat_input, base.heat_input)) +
-                          (f.heat_input > base.heat_input ? " higher" : " lower") + " (" + fmt("%.2f", f.heat_input) + " against " +
-                          fmt("%.2f kJ/mm", base.heat_input) + ").");
+                          (f.heat_input > base.heat_input ? " higher" : " lower") + " (" + or_na("%.2f", f.heat_input) + " against " +
+                          or_na("%.2f kJ/mm", base.heat_input) + ").");
         }
         if (std::isfinite(f.rate_540) && std::isfinite(base.rate_540) && std::abs(f.rate_540 / base.rate_540 - 1) >= 0.05) {
             const bool b_faster = f.rate_540 > base.rate_540;
             out.push_back((b_faster ? b : a) + "'s HAZ cools " +
                           percent_more(std::max(f.rate_540, base.rate_540), std::min(f.rate_540, base.rate_540)) +
-                          " faster at 540 degC (t8/5 " + fmt("%.1f", b_faster ? f.t85_lo : base.t85_lo) + " against " +
-                          fmt("%.1f s", b_faster ? base.t85_lo : f.t85_lo) + ").");
+                          " faster at 540 degC (t8/5 " + or_na("%.1f", b_faster ? f.t85_lo : base.t85_lo) + " against " +
+                          or_na("%.1f s", b_faster ? base.t85_lo : f.t85_lo) + ").");
         }
         if (std::isfinite(f.preheat) && std::isfinite(base.preheat) && f.preheat != base.preheat) {
-            out.push_back(b + " needs " + fmt("%.0f degC", std::abs(f.preheat - base.preheat)) +
+            out.push_back(b + " needs " + or_na("%.0f degC", std::abs(f.preheat - base.preheat)) +
                           (f.preheat > base.preheat ? " more" : " less") + " preheat than " + a + " for the same hardness limit.");
         }
     }
@@ -202,8 +197,8 @@ void require_same_joint(const std::vector<LoadedCase>& cases) {
         const auto& b = cases[i].value;
         const auto differ = [&](const char* key, double va, double vb, double scale, const char* unit) {
             if (std::abs(va - vb) <= 1e-9 * std::max(1.0, std::abs(va))) return;
-            problems.push_back({b.file, std::string("joint.") + key, fmt("%.4g", vb * scale) + " " + unit,
-                                "differs from " + a.file + "'s " + fmt("%.4g", va * scale) + " " + unit +
+            problems.push_back({b.file, std::string("joint.") + key, or_na("%.4g", vb * scale) + " " + unit,
+                                "differs from " + a.file + "'s " + or_na("%.4g", va * scale) + " " + unit +
                                     "; compare procedures on the same joint (plates, offset, gap and sides alike)"});
         };
         differ("flange_thickness", a.joint.flange_thickness, b.joint.flange_thickness, 1e3, "mm");
@@ -238,15 +233,12 @@ std::string grid_key(const Case& c) {
                      j.root_gap, double(j.sides), j.leg_flange, j.leg_web, double(static_cast<int>(j.face)), j.convexity,
                      g.cross_section.finest, g.cross_section.coarsest, g.cross_section.growth, g.refine_margin,
                      g.along_weld}) {
-        char buf[32];
-        std::snprintf(buf, sizeof buf, "%.17g ", v);
-        key += buf;
+        key += format_text("%.17g ", v);
     }
     return key;
 }
 
-nlohmann::json to_json(const std::vector<Outcome>& outcomes, const std::vector<std::pair<std::string, std::vector<std::string>>>& rows,
-                       const std::vector<std::string>& words) {
+nlohmann::json to_json(const std::vector<Outcome>& outcomes, const Rows& rows, const std::vector<std::string>& words) {
     nlohmann::json j;
     j["cases"] = nlohmann::json::array();
     for (const auto& o : outcomes) {
@@ -281,7 +273,7 @@ nlohmann::json to_json(const std::vector<Outcome>& outcomes, const std::vector<s
     for (const auto& [label, cells] : rows) j["table"].push_back({{"quantity", label}, {"values", cells}});
     j["differences"] = words;
     j["warnings"] = warnings(outcomes);
-    j["caution"] = compare_caution;
+    j["caution"] = post::compare_caution;
     return j;
 }
 
@@ -292,7 +284,7 @@ std::string csv_cell(std::string s) {
     return out + "\"";
 }
 
-std::string to_csv(const std::vector<Outcome>& outcomes, const std::vector<std::pair<std::string, std::vector<std::string>>>& rows) {
+std::string to_csv(const std::vector<Outcome>& outcomes, const Rows& rows) {
     std::string out = "quantity";
     for (const auto& o : outcomes) out += "," + csv_cell(o.name);
     out += "\n";
@@ -304,8 +296,7 @@ std::string to_csv(const std::vector<Outcome>& outcomes, const std::vector<std::
     return out;
 }
 
-post::CompareReportInput report_input(const std::vector<Outcome>& outcomes,
-                                      const std::vector<std::pair<std::string, std::vector<std::string>>>& rows,
+post::CompareReportInput report_input(const std::vector<Outcome>& outcomes, const Rows& rows,
                                       const std::vector<std::string>& words) {
     post::CompareReportInput r;
     r.title = "Procedures compared:";
@@ -328,8 +319,168 @@ post::CompareReportInput report_input(const std::vector<Outcome>& outcomes,
     r.rows = rows;
     r.differences = words;
     r.warnings = warnings(outcomes);
-    r.caution = compare_caution;
+    r.caution = post::compare_caution;
     return r;
+}
+
+// `heatbead compare`, one step per part of the procedure; run() reads as that procedure.
+class CompareCommand {
+public:
+    CompareCommand(const std::vector<LoadedCase>& cases, const CompareOptions& options);
+
+    int run();
+
+private:
+    void share_grids();
+    void print_start() const;
+    void run_cases();
+    void run_case(std::size_t i);
+    void print_ran(std::size_t first, std::size_t last) const;
+    void search_preheats();
+    void write_files(const Rows& rows, const std::vector<std::string>& words) const;
+    void print_table(const Rows& rows, const std::vector<std::string>& words) const;
+    int balance_status() const;
+
+    const std::vector<LoadedCase>& cases_;
+    const CompareOptions& options_;
+    const std::vector<std::string> names_;
+    const int jobs_, threads_;  // runs at a time, OpenMP threads per run
+    const std::filesystem::path out_;
+    // Grids once per distinct joint and grid (grid_key), materials once per case.
+    std::map<std::string, std::unique_ptr<mesh::Grid>> grids_;
+    std::vector<std::unique_ptr<Material>> materials_;
+    std::vector<Outcome> outcomes_;
+};
+
+int cores() { return static_cast<int>(std::max(1u, std::thread::hardware_concurrency())); }
+
+CompareCommand::CompareCommand(const std::vector<LoadedCase>& cases, const CompareOptions& options)
+    : cases_(cases),
+      options_(options),
+      names_(names_of(cases)),
+      jobs_(options.jobs > 0 ? options.jobs : cores()),
+      threads_(options.threads > 0 ? options.threads : std::max(1, cores() / jobs_)),
+      out_(options.out_dir),
+      outcomes_(cases.size()) {}
+
+int CompareCommand::run() {
+    share_grids();
+    print_start();
+    run_cases();
+    search_preheats();
+    if (interrupt_flag().load()) {
+        std::fprintf(stderr, "heatbead: comparison interrupted; nothing was written\n");
+        return exit_code::run_failed;
+    }
+    const Rows rows = table(outcomes_);
+    const std::vector<std::string> words = differences(outcomes_);
+    write_files(rows, words);
+    print_table(rows, words);
+    return balance_status();
+}
+
+void CompareCommand::share_grids() {
+    for (const auto& l : cases_) {
+        auto& g = grids_[grid_key(l.value)];
+        if (!g) g = std::make_unique<mesh::Grid>(mesh::build_grid(l.value.joint, l.value.grid));
+        materials_.push_back(std::make_unique<Material>(make_material(l.value.base)));
+    }
+}
+
+void CompareCommand::print_start() const {
+    if (options_.quiet) return;
+    std::printf("heatbead compare  %zu procedures, %zu grid%s, %d run%s at a time\n", cases_.size(), grids_.size(),
+                grids_.size() == 1 ? "" : "s", jobs_, jobs_ == 1 ? "" : "s");
+    std::fflush(stdout);
+}
+
+// In batches of `jobs` cases side by side; an interrupt ends the batch in flight and the ones after it.
+void CompareCommand::run_cases() {
+    const auto batch = static_cast<std::size_t>(jobs_);
+    for (std::size_t first = 0; first < cases_.size(); first += batch) {
+        const std::size_t last = std::min(cases_.size(), first + batch);
+        run_side_by_side(first, last, [this](std::size_t i) { run_case(i); });
+        if (interrupt_flag().load()) break;
+        print_ran(first, last);
+    }
+}
+
+// On a thread of its own: touches only outcome i and reads the shared grids.
+void CompareCommand::run_case(std::size_t i) {
+    omp_set_num_threads(threads_);
+    const Case& c = cases_[i].value;
+    const auto start = std::chrono::steady_clock::now();
+    PreparedRun run = prepare_run(c, *grids_.at(grid_key(c)), *materials_[i]);
+    Outcome& o = outcomes_[i];
+    o.name = names_[i];
+    o.c = &c;
+    o.result = run.sim->run(interrupt_flag());
+    if (!o.result.completed || interrupt_flag().load()) return;
+    o.analysis = analyse_run(c, run);
+    o.wall = std::chrono::duration<double>(std::chrono::steady_clock::now() - start).count();
+    o.summary = make_summary(c, o.result, o.analysis, o.wall);
+}
+
+void CompareCommand::print_ran(std::size_t first, std::size_t last) const {
+    if (options_.quiet) return;
+    for (std::size_t i = first; i < last; ++i) std::printf("  ran %-28s %.1f s\n", names_[i].c_str(), outcomes_[i].wall);
+    std::fflush(stdout);
+}
+
+// Only for cases with a composition and the filler's hydrogen, unless --no-preheat.
+void CompareCommand::search_preheats() {
+    try {
+        for (auto& o : outcomes_) {
+            if (interrupt_flag().load()) break;
+            const Case& c = *o.c;
+            if (!options_.preheat || !c.base.composition || !c.filler.diffusible_hydrogen) continue;
+            o.preheat = find_preheat(c, jobs_, threads_, interrupt_flag());
+            if (!options_.quiet) {
+                std::printf("  preheat %-24s %s (%zu runs)\n", o.name.c_str(),
+                            o.preheat->found ? or_na("%.0f degC", *o.preheat->found).c_str() : "none found",
+                            o.preheat->trials.size());
+                std::fflush(stdout);
+            }
+        }
+    } catch (const SearchInterrupted&) {
+    }
+}
+
+void CompareCommand::write_files(const Rows& rows, const std::vector<std::string>& words) const {
+    post::write_file_atomically(out_ / "compare.json", to_json(outcomes_, rows, words).dump(2) + "\n");
+    post::write_file_atomically(out_ / "compare.csv", to_csv(outcomes_, rows));
+    post::write_compare_report(out_ / "compare.html", report_input(outcomes_, rows, words));
+}
+
+// Columns as wide as their widest entry, so the table reads straight down.
+void CompareCommand::print_table(const Rows& rows, const std::vector<std::string>& words) const {
+    if (options_.quiet) return;
+    std::size_t label_width = 0;
+    std::vector<std::size_t> width(names_.size());
+    for (std::size_t i = 0; i < names_.size(); ++i) width[i] = names_[i].size() + 2;
+    for (const auto& [label, cells] : rows) {
+        label_width = std::max(label_width, label.size() + 2);
+        for (std::size_t i = 0; i < cells.size(); ++i) width[i] = std::max(width[i], cells[i].size() + 2);
+    }
+    const auto print_row = [&](const std::string& label, const std::vector<std::string>& cells) {
+        std::printf("%-*s", static_cast<int>(label_width), label.c_str());
+        for (std::size_t i = 0; i < cells.size(); ++i) std::printf("%-*s", static_cast<int>(width[i]), cells[i].c_str());
+        std::printf("\n");
+    };
+    print_row("", names_);
+    for (const auto& [label, cells] : rows) print_row(label, cells);
+    for (const auto& w : words) std::printf("Difference  %s\n", w.c_str());
+    for (const auto& w : warnings(outcomes_)) std::printf("Warning     %s\n", w.c_str());
+    std::printf("Files       %s, compare.csv, compare.html\n", (out_ / "compare.json").string().c_str());
+    std::printf("Caution     %s\n", post::compare_caution);
+}
+
+// Results whose energy balance is off by more than 1 % are written, but the exit code says so.
+int CompareCommand::balance_status() const {
+    for (const auto& o : outcomes_) {
+        if (std::abs(o.result.energy.error()) > 0.01) return exit_code::outside_validity;
+    }
+    return exit_code::ok;
 }
 
 }  // namespace
@@ -338,101 +489,8 @@ int compare_command(const std::vector<LoadedCase>& cases, const CompareOptions& 
     catch_interrupts();
     if (cases.size() < 2) throw std::invalid_argument("compare needs at least two case files");
     require_same_joint(cases);
-    const std::vector<std::string> names = names_of(cases);
-    const int cores = static_cast<int>(std::max(1u, std::thread::hardware_concurrency()));
-    const int jobs = options.jobs > 0 ? options.jobs : cores;
-    const int threads = options.threads > 0 ? options.threads : std::max(1, cores / jobs);
-    const std::filesystem::path out(options.out_dir);
-
-    // Grids and materials once per distinct joint and grid (and base metal).
-    std::map<std::string, std::unique_ptr<mesh::Grid>> grids;
-    std::vector<std::unique_ptr<Material>> materials;
-    for (const auto& l : cases) {
-        auto& g = grids[grid_key(l.value)];
-        if (!g) g = std::make_unique<mesh::Grid>(mesh::build_grid(l.value.joint, l.value.grid));
-        materials.push_back(std::make_unique<Material>(make_material(l.value.base)));
-    }
-    if (!options.quiet) {
-        std::printf("heatbead compare  %zu procedures, %zu grid%s, %d run%s at a time\n", cases.size(), grids.size(),
-                    grids.size() == 1 ? "" : "s", jobs, jobs == 1 ? "" : "s");
-        std::fflush(stdout);
-    }
-    std::vector<Outcome> outcomes(cases.size());
-    for (std::size_t first = 0; first < cases.size(); first += static_cast<std::size_t>(jobs)) {
-        const std::size_t last = std::min(cases.size(), first + static_cast<std::size_t>(jobs));
-        run_side_by_side(first, last, [&](std::size_t i) {
-            omp_set_num_threads(threads);
-            const Case& c = cases[i].value;
-            const auto start = std::chrono::steady_clock::now();
-            PreparedRun run = prepare_run(c, *grids.at(grid_key(c)), *materials[i]);
-            Outcome& o = outcomes[i];
-            o.name = names[i];
-            o.c = &c;
-            o.result = run.sim->run(interrupt_flag());
-            if (!o.result.completed || interrupt_flag().load()) return;
-            o.analysis = analyse_run(c, run);
-            o.wall = std::chrono::duration<double>(std::chrono::steady_clock::now() - start).count();
-            o.summary = make_summary(c, o.result, o.analysis, o.wall);
-        });
-        if (interrupt_flag().load()) break;
-        if (!options.quiet) {
-            for (std::size_t i = first; i < last; ++i) {
-                std::printf("  ran %-28s %.1f s\n", names[i].c_str(), outcomes[i].wall);
-            }
-            std::fflush(stdout);
-        }
-    }
-    try {
-        for (auto& o : outcomes) {
-            if (interrupt_flag().load()) break;
-            const Case& c = *o.c;
-            if (!options.preheat || !c.base.composition || !c.filler.diffusible_hydrogen) continue;
-            o.preheat = find_preheat(c, jobs, threads, interrupt_flag());
-            if (!options.quiet) {
-                std::printf("  preheat %-24s %s (%zu runs)\n", o.name.c_str(),
-                            o.preheat->found ? fmt("%.0f degC", *o.preheat->found).c_str() : "none found",
-                            o.preheat->trials.size());
-                std::fflush(stdout);
-            }
-        }
-    } catch (const SearchInterrupted&) {
-    }
-    if (interrupt_flag().load()) {
-        std::fprintf(stderr, "heatbead: comparison interrupted; nothing was written\n");
-        return exit_code::run_failed;
-    }
-
-    const auto rows = table(outcomes);
-    const auto words = differences(outcomes);
-    post::write_file_atomically(out / "compare.json", to_json(outcomes, rows, words).dump(2) + "\n");
-    post::write_file_atomically(out / "compare.csv", to_csv(outcomes, rows));
-    post::write_compare_report(out / "compare.html", report_input(outcomes, rows, words));
-
-    if (!options.quiet) {
-        // Columns as wide as their widest entry, so the table reads straight down.
-        std::size_t label_width = 0;
-        std::vector<std::size_t> width(names.size());
-        for (std::size_t i = 0; i < names.size(); ++i) width[i] = names[i].size() + 2;
-        for (const auto& [label, cells] : rows) {
-            label_width = std::max(label_width, label.size() + 2);
-            for (std::size_t i = 0; i < cells.size(); ++i) width[i] = std::max(width[i], cells[i].size() + 2);
-        }
-        const auto print_row = [&](const std::string& label, const std::vector<std::string>& cells) {
-            std::printf("%-*s", static_cast<int>(label_width), label.c_str());
-            for (std::size_t i = 0; i < cells.size(); ++i) std::printf("%-*s", static_cast<int>(width[i]), cells[i].c_str());
-            std::printf("\n");
-        };
-        print_row("", names);
-        for (const auto& [label, cells] : rows) print_row(label, cells);
-        for (const auto& w : words) std::printf("Difference  %s\n", w.c_str());
-        for (const auto& w : warnings(outcomes)) std::printf("Warning     %s\n", w.c_str());
-        std::printf("Files       %s, compare.csv, compare.html\n", (out / "compare.json").string().c_str());
-        std::printf("Caution     %s\n", compare_caution);
-    }
-    for (const auto& o : outcomes) {
-        if (std::abs(o.result.energy.error()) > 0.01) return exit_code::outside_validity;
-    }
-    return exit_code::ok;
+    CompareCommand command(cases, options);
+    return command.run();
 }
 
 }  // namespace heatbead

@@ -5,8 +5,10 @@
 #include "solver/studies/run_setup.hpp"
 
 #include "post/atomic_file.hpp"
+#include "post/cautions.hpp"
 #include "post/compare_report.hpp"
 #include "solver/core/exit_codes.hpp"
+#include "solver/core/text.hpp"
 #include "solver/studies/fit_measurements.hpp"
 #include "solver/app/run_files.hpp"
 #include "solver/studies/source_fit.hpp"
@@ -27,17 +29,10 @@ namespace heatbead {
 
 namespace {
 
-const char* const fit_caution =
-    "A fitted source reproduces the measurements it was fitted to; it is not a qualified procedure. Check it "
-    "against a macro-section it was not fitted to before relying on its predictions.";
-
 bool is_length(const std::string& name) { return name != "arc_efficiency"; }
 
 std::string shown(const std::string& name, double v) {
-    char buf[48];
-    if (is_length(name)) std::snprintf(buf, sizeof buf, "%.2f mm", v * 1e3);
-    else std::snprintf(buf, sizeof buf, "%.3f", v);
-    return buf;
+    return is_length(name) ? format_text("%.2f mm", v * 1e3) : format_text("%.3f", v);
 }
 
 // The case's resolved listing with the fitted source and efficiency: a case file that reads back.
@@ -77,7 +72,7 @@ nlohmann::json to_json(const FitResult& f) {
     j["runs"] = f.runs;
     j["iterations"] = f.iterations;
     j["warnings"] = f.warnings;
-    j["caution"] = fit_caution;
+    j["caution"] = post::fit_caution;
     return j;
 }
 
@@ -104,11 +99,9 @@ post::CompareReportInput report_input(const Case& c, const Measurements& m, cons
         const bool temperature = f.labels[i].rfind("thermocouple", 0) == 0, area = f.labels[i] == "fused_area";
         const double scale = temperature ? 1 : area ? 1e6 : 1e3;
         const char* unit = temperature ? " degC" : area ? " mm2" : " mm";
-        char measured[64], before[64], after[64];
-        std::snprintf(measured, sizeof measured, "%.3g%s", f.measured[i] * scale, unit);
-        std::snprintf(before, sizeof before, "%.3g%s", f.before.values[i] * scale, unit);
-        std::snprintf(after, sizeof after, "%.3g%s", f.after.values[i] * scale, unit);
-        r.rows.push_back({f.labels[i] + " (measured " + measured + ")", {before, after}});
+        const auto with_unit = [&](double v) { return format_text("%.3g%s", v * scale, unit); };
+        r.rows.push_back({f.labels[i] + " (measured " + with_unit(f.measured[i]) + ")",
+                          {with_unit(f.before.values[i]), with_unit(f.after.values[i])}});
     }
     if (!m.boundary.empty()) {
         // The digitised boundary, drawn as a line of its own beside the predicted ones.
@@ -119,11 +112,10 @@ post::CompareReportInput report_input(const Case& c, const Measurements& m, cons
         r.procedures.push_back(std::move(measured));
         for (auto& row : r.rows) row.second.push_back("");  // the table's columns are start and fitted
     }
-    char misfit[96];
-    std::snprintf(misfit, sizeof misfit, "The misfit fell from %.4g to %.4g in %d runs.", f.before.misfit, f.after.misfit, f.runs);
-    r.differences.push_back(misfit);
+    r.differences.push_back(
+        format_text("The misfit fell from %.4g to %.4g in %d runs.", f.before.misfit, f.after.misfit, f.runs));
     r.warnings = f.warnings;
-    r.caution = fit_caution;
+    r.caution = post::fit_caution;
     return r;
 }
 
@@ -171,7 +163,7 @@ int fit_command(const LoadedCase& loaded, const FitOptions& o) {
         std::printf("Runs        %d in %.0f s, %d iterations\n", fit.runs, wall, fit.iterations);
         for (const auto& w : fit.warnings) std::printf("Warning     %s\n", w.c_str());
         std::printf("Files       %s, %s, fit.html\n", fitted_file.string().c_str(), (out / "fit.json").string().c_str());
-        std::printf("Caution     %s\n", fit_caution);
+        std::printf("Caution     %s\n", post::fit_caution);
     }
     return exit_code::ok;
 }

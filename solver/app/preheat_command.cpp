@@ -3,10 +3,11 @@
 #include "solver/app/interrupt.hpp"
 
 #include "post/atomic_file.hpp"
+#include "post/cautions.hpp"
 #include "post/preheat_report.hpp"
 #include "solver/weldability/carbon_equivalent.hpp"
-#include "solver/app/check.hpp"
 #include "solver/core/exit_codes.hpp"
+#include "solver/core/text.hpp"
 #include "solver/weldability/haz_hardness.hpp"
 #include "solver/studies/preheat_search.hpp"
 #include "solver/app/run_command.hpp"
@@ -26,17 +27,8 @@ namespace heatbead {
 
 namespace {
 
-const char* const preheat_caution =
-    "Advisory estimate for planning, not a qualified preheat. The governing welding code, the qualified welding "
-    "procedure and hardness testing decide the preheat; hydrogen control (dry low-hydrogen consumables, clean "
-    "and dry joints, maintained interpass temperature, slow cooling where required) still applies.";
-
-std::string fmt(const char* format, double v) {
-    char buf[64];
-    std::snprintf(buf, sizeof buf, format, v);
-    return buf;
-}
-std::string or_na(double v, const char* format) { return std::isfinite(v) ? fmt(format, v) : "n/a"; }
+// A figure, or "n/a" where the run gave none (NaN).
+std::string or_na(const char* format, double v) { return std::isfinite(v) ? format_text(format, v) : "n/a"; }
 
 std::vector<PreheatTrial> by_preheat(std::vector<PreheatTrial> trials) {
     std::sort(trials.begin(), trials.end(), [](const auto& a, const auto& b) { return a.preheat < b.preheat; });
@@ -58,9 +50,9 @@ std::optional<double> recommended(const PreheatAnswer& a, const Case& c) {
 
 std::string limits_text(const Case& c) {
     const auto& l = c.preheat_search;
-    std::string s = "hardness at most " + fmt("%.0f HV", l.hardness_limit);
-    if (l.min_t8_5) s += ", t8/5 at least " + fmt("%.2g s", *l.min_t8_5);
-    if (l.min_time_to_100) s += ", time to 100 degC at least " + fmt("%.0f s", *l.min_time_to_100);
+    std::string s = "hardness at most " + format_text("%.0f HV", l.hardness_limit);
+    if (l.min_t8_5) s += ", t8/5 at least " + format_text("%.2g s", *l.min_t8_5);
+    if (l.min_time_to_100) s += ", time to 100 degC at least " + format_text("%.0f s", *l.min_time_to_100);
     return s + " at every hardened HAZ probe of the station";
 }
 
@@ -71,32 +63,32 @@ std::string explanation(const PreheatAnswer& a, const Case& c) {
     std::string s;
     if (!a.found) {
         const auto& top = trials.back();
-        s = "No preheat up to " + fmt("%.0f degC", top.preheat) + " meets the limits in the simulation (at " +
-            fmt("%.0f degC", top.preheat) + ": " + top.verdict + ").";
+        s = "No preheat up to " + format_text("%.0f degC", top.preheat) + " meets the limits in the simulation (at " +
+            format_text("%.0f degC", top.preheat) + ": " + top.verdict + ").";
         const double needed = critical_t8_5(*c.base.composition, c.preheat_search.hardness_limit, top.preheat);
         if (std::isfinite(needed) && needed > 0 && std::isfinite(top.t8_5)) {
-            s += " For " + fmt("%.0f HV", c.preheat_search.hardness_limit) + " this steel needs a t8/5 of about " +
-                 fmt("%.1f s", needed) + " (hardness formula); this joint gives " + fmt("%.1f s", top.t8_5) + " there.";
+            s += " For " + format_text("%.0f HV", c.preheat_search.hardness_limit) + " this steel needs a t8/5 of about " +
+                 format_text("%.1f s", needed) + " (hardness formula); this joint gives " + format_text("%.1f s", top.t8_5) + " there.";
         }
         return s + " Preheat alone does not bring this joint within the limits: a higher heat input, a steel of "
                    "lower carbon equivalent or a heat treatment under the governing code are the usual next steps.";
     }
     const auto at_found = std::find_if(trials.begin(), trials.end(), [&](const auto& t) { return t.preheat == *a.found; });
     s = "The simulation sets preheat by the hardness of the coarse-grained HAZ at this joint's own cooling: at " +
-        fmt("%.0f degC", *a.found) + " the hardest probe (" + at_found->hardest_probe + ") reaches " +
-        fmt("%.0f HV", at_found->hardness) + " with t8/5 " + fmt("%.2f s", at_found->t8_5) + ".";
+        format_text("%.0f degC", *a.found) + " the hardest probe (" + at_found->hardest_probe + ") reaches " +
+        format_text("%.0f HV", at_found->hardness) + " with t8/5 " + format_text("%.2f s", at_found->t8_5) + ".";
     if (at_found != trials.begin()) {
         const auto below = std::prev(at_found);
-        s += " At " + fmt("%.0f degC", below->preheat) + " it misses: " + below->verdict + ".";
+        s += " At " + format_text("%.0f degC", below->preheat) + " it misses: " + below->verdict + ".";
     }
     const double needed = critical_t8_5(*c.base.composition, c.preheat_search.hardness_limit, *a.found);
     if (std::isfinite(needed) && needed > 0) {
-        s += " For " + fmt("%.0f HV", c.preheat_search.hardness_limit) + " this steel needs a t8/5 of about " +
-             fmt("%.1f s", needed) + " (hardness formula); a higher heat input lengthens t8/5 too.";
+        s += " For " + format_text("%.0f HV", c.preheat_search.hardness_limit) + " this steel needs a t8/5 of about " +
+             format_text("%.1f s", needed) + " (hardness formula); a higher heat input lengthens t8/5 too.";
     }
     s += " EN 1011-2 method B is an empirical fit to hydrogen-cracking tests: it sets preheat from CET " +
-         fmt("%.2f", a.standard.cet) + ", plate thickness " + fmt("%.0f mm", in.thickness) + ", diffusible hydrogen " +
-         fmt("%.0f ml/100 g", in.hydrogen) + " and heat input " + fmt("%.2f kJ/mm", in.heat_input) +
+         format_text("%.2f", a.standard.cet) + ", plate thickness " + format_text("%.0f mm", in.thickness) + ", diffusible hydrogen " +
+         format_text("%.0f ml/100 g", in.hydrogen) + " and heat input " + format_text("%.2f kJ/mm", in.heat_input) +
          ", with no model of this joint's heat flow; the simulation has no model of hydrogen or restraint.";
     const double standard = standard_applied(a, c);
     const double difference = *a.found - standard;
@@ -124,7 +116,7 @@ std::string explanation(const PreheatAnswer& a, const Case& c) {
 std::string runs_csv(const std::vector<PreheatTrial>& trials) {
     std::string out = "preheat [degC],hardness [HV],hardest probe,t8/5 [s],time to 100 degC [s],meets hardness,"
                       "meets t8/5,meets time to 100 degC,passes,verdict,energy balance error [%],run time [s]\n";
-    const auto num = [](double v, const char* format) { return std::isfinite(v) ? fmt(format, v) : std::string(); };
+    const auto num = [](double v, const char* format) { return std::isfinite(v) ? format_text(format, v) : std::string(); };
     const auto yes = [](bool b) { return std::string(b ? "yes" : "no"); };
     for (const auto& t : by_preheat(trials)) {
         std::string verdict = t.verdict;
@@ -147,8 +139,8 @@ std::vector<std::string> warnings(const PreheatAnswer& a, const Case& c) {
     }
     for (const auto& t : a.trials) {
         if (std::abs(t.energy_error) > 0.01) {
-            w.push_back("the run at " + fmt("%.0f degC", t.preheat) + " has an energy balance error of " +
-                        fmt("%.2f %%", t.energy_error * 100) + ": refine the grid");
+            w.push_back("the run at " + format_text("%.0f degC", t.preheat) + " has an energy balance error of " +
+                        format_text("%.2f %%", t.energy_error * 100) + ": refine the grid");
         }
     }
     for (const auto& x : c.warnings) w.push_back(x);
@@ -184,7 +176,7 @@ nlohmann::json to_json(const PreheatAnswer& a, const Case& c) {
                              {"energy_balance_error", t.energy_error}, {"run_time_s", t.wall_seconds}});
     }
     j["warnings"] = warnings(a, c);
-    j["caution"] = preheat_caution;
+    j["caution"] = post::preheat_caution;
     return j;
 }
 
@@ -195,22 +187,22 @@ post::PreheatReportInput report_input(const PreheatAnswer& a, const Case& c) {
     r.created = now_utc();
     const auto rec = recommended(a, c);
     r.answer = {{"Limits", limits_text(c)},
-                {"Simulation (lowest preheat meeting the limits)", a.found ? fmt("%.0f °C", *a.found) : "none found"},
-                {"EN 1011-2 method B", fmt("%.0f °C", a.standard.formula) +
+                {"Simulation (lowest preheat meeting the limits)", a.found ? format_text("%.0f °C", *a.found) : "none found"},
+                {"EN 1011-2 method B", format_text("%.0f °C", a.standard.formula) +
                                            (a.standard.formula < c.preheat_search.lowest ? " (no preheat)" : "")},
-                {"Recommended minimum preheat and interpass", rec ? fmt("%.0f °C", *rec) : "none: see below"}};
+                {"Recommended minimum preheat and interpass", rec ? format_text("%.0f °C", *rec) : "none: see below"}};
     r.explanation = explanation(a, c);
     const auto& comp = *c.base.composition;
     const auto ce = carbon_equivalents(comp);
-    r.inputs = {{"Composition (mass %)", fmt("C %.3g", comp.C) + fmt(", Mn %.3g", comp.Mn) + fmt(", Si %.3g", comp.Si) +
-                                             fmt(", Cr %.3g", comp.Cr) + fmt(", Mo %.3g", comp.Mo) + fmt(", V %.3g", comp.V) +
-                                             fmt(", Ni %.3g", comp.Ni) + fmt(", Cu %.3g", comp.Cu) +
-                                             fmt(", Nb %.3g", comp.Nb) + fmt(", B %.3g", comp.B)},
-                {"Carbon equivalents", fmt("CE(IIW) %.3f", ce.iiw) + fmt(", Pcm %.3f", ce.pcm) + fmt(", CEN %.3f", ce.cen) +
-                                           fmt(", CET %.3f", ce.cet)},
-                {"Plate thickness for the standard", fmt("%.1f mm (the thicker plate)", a.standard_input.thickness)},
-                {"Diffusible hydrogen", fmt("%.1f ml/100 g", a.standard_input.hydrogen)},
-                {"Heat input (EN 1011-1)", fmt("%.3f kJ/mm", a.standard_input.heat_input)},
+    r.inputs = {{"Composition (mass %)", format_text("C %.3g", comp.C) + format_text(", Mn %.3g", comp.Mn) + format_text(", Si %.3g", comp.Si) +
+                                             format_text(", Cr %.3g", comp.Cr) + format_text(", Mo %.3g", comp.Mo) + format_text(", V %.3g", comp.V) +
+                                             format_text(", Ni %.3g", comp.Ni) + format_text(", Cu %.3g", comp.Cu) +
+                                             format_text(", Nb %.3g", comp.Nb) + format_text(", B %.3g", comp.B)},
+                {"Carbon equivalents", format_text("CE(IIW) %.3f", ce.iiw) + format_text(", Pcm %.3f", ce.pcm) + format_text(", CEN %.3f", ce.cen) +
+                                           format_text(", CET %.3f", ce.cet)},
+                {"Plate thickness for the standard", format_text("%.1f mm (the thicker plate)", a.standard_input.thickness)},
+                {"Diffusible hydrogen", format_text("%.1f ml/100 g", a.standard_input.hydrogen)},
+                {"Heat input (EN 1011-1)", format_text("%.3f kJ/mm", a.standard_input.heat_input)},
                 {"Hardness estimate", "Düren (1986) from t8/5, bounded by the Maynier et al. (1978) phase hardnesses"}};
     for (const auto& t : a.trials) {
         r.runs.push_back({t.preheat, t.hardness, t.hardest_probe, t.t8_5, t.time_to_100, t.passes, t.verdict});
@@ -225,7 +217,7 @@ post::PreheatReportInput report_input(const PreheatAnswer& a, const Case& c) {
     r.found = a.found;
     r.standard = standard_applied(a, c);
     r.warnings = warnings(a, c);
-    r.caution = preheat_caution;
+    r.caution = post::preheat_caution;
     return r;
 }
 
@@ -233,8 +225,8 @@ void print_round(const std::vector<PreheatTrial>& trials, std::size_t from) {
     for (std::size_t i = from; i < trials.size(); ++i) {
         const auto& t = trials[i];
         std::printf("  %6.0f degC  %5s HV  %-20s  t8/5 %6s s  to 100 degC %7s s  %s\n", t.preheat,
-                    or_na(t.hardness, "%.0f").c_str(), t.hardest_probe.c_str(), or_na(t.t8_5, "%.2f").c_str(),
-                    or_na(t.time_to_100, "%.0f").c_str(), t.passes ? "pass" : ("FAIL: " + t.verdict).c_str());
+                    or_na("%.0f", t.hardness).c_str(), t.hardest_probe.c_str(), or_na("%.2f", t.t8_5).c_str(),
+                    or_na("%.0f", t.time_to_100).c_str(), t.passes ? "pass" : ("FAIL: " + t.verdict).c_str());
     }
     std::fflush(stdout);
 }
@@ -284,18 +276,18 @@ int preheat_command(const LoadedCase& loaded, const PreheatOptions& options) {
         const auto ce = carbon_equivalents(*c.base.composition);
         const auto rec = recommended(answer, c);
         std::printf("Runs        %zu in %.0f s\n", answer.trials.size(), wall);
-        std::printf("Simulation  %s\n", answer.found ? ("lowest preheat meeting the limits: " + fmt("%.0f degC", *answer.found)).c_str()
+        std::printf("Simulation  %s\n", answer.found ? ("lowest preheat meeting the limits: " + format_text("%.0f degC", *answer.found)).c_str()
                                                      : "no preheat in the range meets the limits");
         std::printf("Standard    EN 1011-2 method B (CET %.3f, d %.0f mm, HD %.0f ml/100g, Q %.2f kJ/mm): %.0f degC%s\n",
                     answer.standard.cet, in.thickness, in.hydrogen, in.heat_input, answer.standard.formula,
                     answer.standard.formula < c.preheat_search.lowest ? " (no preheat)" : "");
-        std::printf("Recommended %s\n", rec ? ("minimum preheat and interpass " + fmt("%.0f degC", *rec)).c_str()
+        std::printf("Recommended %s\n", rec ? ("minimum preheat and interpass " + format_text("%.0f degC", *rec)).c_str()
                                             : "none: preheat alone does not meet the limits");
         std::printf("Carbon eq.  CE(IIW) %.3f, Pcm %.3f, CEN %.3f, CET %.3f\n", ce.iiw, ce.pcm, ce.cen, ce.cet);
         std::printf("Why         %s\n", explanation(answer, c).c_str());
         for (const auto& w : warnings(answer, c)) std::printf("Warning     %s\n", w.c_str());
         std::printf("Files       %s, preheat.html, preheat_runs.csv\n", (out / "preheat.json").string().c_str());
-        std::printf("Caution     %s\n", preheat_caution);
+        std::printf("Caution     %s\n", post::preheat_caution);
     }
     for (const auto& t : answer.trials) {
         if (std::abs(t.energy_error) > 0.01) return exit_code::outside_validity;

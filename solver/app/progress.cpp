@@ -1,5 +1,7 @@
 #include "solver/app/progress.hpp"
 
+#include "solver/core/text.hpp"
+
 #include <algorithm>
 #include <cmath>
 #include <unistd.h>
@@ -22,11 +24,9 @@ void ProgressPrinter::update(double t, double arc_x, double dt, double max_tempe
     last_ = now;
     const double wall = std::chrono::duration<double>(now - start_).count();
     const double eta = t > 0 ? std::max(0.0, wall * (expected_ / t - 1)) : 0.0;
-    char arc[32];
-    if (std::isnan(arc_x)) std::snprintf(arc, sizeof arc, "arc off");
-    else std::snprintf(arc, sizeof arc, "arc at %5.1f mm", arc_x * 1e3);
+    const std::string arc = std::isnan(arc_x) ? "arc off" : format_text("arc at %5.1f mm", arc_x * 1e3);
     std::fprintf(stderr, "%s  t %7.2f s  %s  step %.3g s  hottest %5.0f degC  elapsed %.0f s  eta ~%.0f s%s",
-                 terminal_ ? "\r" : "", t, arc, dt, max_temperature, wall, eta, terminal_ ? "   " : "\n");
+                 terminal_ ? "\r" : "", t, arc.c_str(), dt, max_temperature, wall, eta, terminal_ ? "   " : "\n");
     std::fflush(stderr);
 }
 

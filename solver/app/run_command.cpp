@@ -3,12 +3,12 @@
 #include "solver/app/interrupt.hpp"
 
 #include "mesh/grid.hpp"
-#include "post/hdf5_results.hpp"
 #include "post/atomic_file.hpp"
+#include "post/cautions.hpp"
+#include "post/hdf5_results.hpp"
 #include "post/vtk_output.hpp"
 #include "solver/studies/run_analysis.hpp"
 #include "solver/app/run_files.hpp"
-#include "solver/app/check.hpp"
 #include "solver/core/exit_codes.hpp"
 #include "solver/physics/procedure.hpp"
 #include "solver/app/progress.hpp"
@@ -65,113 +65,195 @@ post::RunRecord make_record(const PreparedRun& run, const LoadedCase& loaded, co
     return rec;
 }
 
+// `heatbead run`, one step per part of the procedure; run() reads as that procedure. The snapshot
+// observer holds `this`, so a command is built in place and never copied.
+class RunCommand {
+public:
+    RunCommand(const LoadedCase& loaded, const RunOptions& options);
+    RunCommand(const RunCommand&) = delete;
+    RunCommand& operator=(const RunCommand&) = delete;
+
+    int run();
+
+private:
+    bool wants(std::string_view kind) const;
+    void start_snapshots();
+    void simulate();
+    bool failed() const;
+    int clean_up_failure() const;
+    void analyse();
+    void write_hdf5();
+    void write_tables();
+    void write_section_lines();
+    void write_vtk();
+    void write_report();
+    void print_summary() const;
+    int balance_status() const;
+
+    const LoadedCase& loaded_;
+    const Case& c_;
+    const RunOptions& options_;
+    const std::filesystem::path out_;
+    // Temperature snapshots go to a folder that only gets its final name once the run completed.
+    const std::filesystem::path series_dir_, series_partial_;
+    const mesh::Grid grid_;
+    const Material material_;
+    PreparedRun prepared_;
+    std::optional<post::VtkSeries> series_;
+    double next_snapshot_ = 0;
+    RunResult result_;
+    double wall_ = 0;  // s the run took
+    RunAnalysis analysis_;
+    post::Summary summary_;
+    std::vector<std::string> written_;  // what the screen lists under "Files"
+};
+
+RunCommand::RunCommand(const LoadedCase& loaded, const RunOptions& options)
+    : loaded_(loaded),
+      c_(loaded.value),
+      options_(options),
+      out_(options.out_dir.empty() ? std::filesystem::path("results") / std::filesystem::path(c_.file).stem()
+                                   : std::filesystem::path(options.out_dir)),
+      series_dir_(out_ / "temperature_series"),
+      series_partial_(out_ / "temperature_series.partial"),
+      grid_(mesh::build_grid(c_.joint, c_.grid)),
+      material_(make_material(c_.base)),
+      prepared_(prepare_run(c_, grid_, material_)) {}
+
+int RunCommand::run() {
+    start_snapshots();
+    simulate();
+    if (failed()) return clean_up_failure();
+    analyse();
+    write_hdf5();
+    write_tables();
+    write_section_lines();
+    write_vtk();
+    write_report();
+    print_summary();
+    return balance_status();
+}
+
+bool RunCommand::wants(std::string_view kind) const {
+    return std::find(c_.output.files.begin(), c_.output.files.end(), kind) != c_.output.files.end();
+}
+
+void RunCommand::start_snapshots() {
+    if (!wants("vtk")) return;
+    std::filesystem::remove_all(series_partial_);
+    series_.emplace(series_partial_, "temperature");
+    Simulation& sim = *prepared_.sim;
+    sim.add_observer([this, &sim](double t, std::span<const double> T) {
+        if (t + 1e-12 < next_snapshot_) return;
+        series_->add(t, grid_, sim.cells(), sim.active(), {{"temperature", T}});
+        next_snapshot_ = t + c_.output.snapshot_interval;
+    });
+}
+
+void RunCommand::simulate() {
+    const RunEstimate estimate = estimate_run(c_, grid_, material_);
+    ProgressPrinter progress(options_.quiet, estimate.simulated_time);
+    const auto start = std::chrono::steady_clock::now();
+    result_ = prepared_.sim->run(interrupt_flag(),
+                                 [&](double t, double x, double dt, double hot) { progress.update(t, x, dt, hot); });
+    wall_ = std::chrono::duration<double>(std::chrono::steady_clock::now() - start).count();
+    progress.finish();
+}
+
+bool RunCommand::failed() const { return !result_.completed || interrupt_flag().load(); }
+
+// Nothing of a failed run stays behind: not the partial snapshots, nor an output folder left empty.
+int RunCommand::clean_up_failure() const {
+    std::error_code ignored;
+    std::filesystem::remove_all(series_partial_, ignored);
+    if (std::filesystem::is_directory(out_, ignored) && std::filesystem::is_empty(out_, ignored)) {
+        std::filesystem::remove(out_, ignored);
+    }
+    std::fprintf(stderr, "heatbead: run %s at t = %.2f s; nothing was written\n",
+                 interrupt_flag().load() ? "interrupted" : result_.stop_reason.c_str(), result_.end_time);
+    return exit_code::run_failed;
+}
+
+void RunCommand::analyse() {
+    analysis_ = analyse_run(c_, prepared_);
+    summary_ = make_summary(c_, result_, analysis_, wall_);
+}
+
+void RunCommand::write_hdf5() {
+    if (!wants("hdf5")) return;
+    const auto file = out_ / "results.h5";
+    post::write_hdf5_results(file, make_record(prepared_, loaded_, result_, analysis_));
+    written_.push_back(file.string());
+}
+
+void RunCommand::write_tables() {
+    if (!wants("summary")) return;
+    post::write_file_atomically(out_ / "summary.json", summary_.to_json());
+    post::write_file_atomically(out_ / "summary.csv", summary_.to_csv());
+    post::write_file_atomically(out_ / "probes.csv", probes_csv(analysis_));
+    post::write_file_atomically(out_ / "along_weld.csv", along_weld_csv(analysis_));
+    written_.push_back((out_ / "summary.json").string() + ", summary.csv, probes.csv, along_weld.csv");
+}
+
+void RunCommand::write_section_lines() {
+    if (!wants("contours")) return;
+    post::write_file_atomically(out_ / "section_lines.csv", section_lines_csv(analysis_));
+    written_.push_back((out_ / "section_lines.csv").string());
+}
+
+// The snapshot folder takes its final name, then the fields and section lines go beside it.
+void RunCommand::write_vtk() {
+    if (!series_) return;
+    series_->finish();
+    std::filesystem::remove_all(series_dir_);
+    std::filesystem::rename(series_partial_, series_dir_);
+    write_vtk_results(out_, c_, prepared_, analysis_);
+    written_.push_back((series_dir_ / "temperature.pvd").string() + ", fields.vtu, section_lines.vtp");
+}
+
+void RunCommand::write_report() {
+    if (!wants("report")) return;
+    std::vector<std::string> notes;
+    if (analysis_.section.lack_of_fusion_flange) notes.push_back("lack of fusion into the flange predicted");
+    if (analysis_.section.lack_of_fusion_web) notes.push_back("lack of fusion into the web predicted");
+    if (!analysis_.section.root_fused) notes.push_back("the root is not fused");
+    post::write_report(out_ / "report.html", make_report_input(c_, prepared_, analysis_, summary_, notes));
+    written_.push_back((out_ / "report.html").string());
+}
+
+void RunCommand::print_summary() const {
+    if (options_.quiet) return;
+    std::printf("heatbead run  %s  (%zu solid cells, %s, %zu steps, stopped at %.1f s: %s)\n", c_.file.c_str(),
+                prepared_.sim->cells().size(), c_.solver.integrator.c_str(), result_.steps, result_.end_time,
+                result_.stop_reason.c_str());
+    std::printf("%s", summary_.to_text().c_str());
+    if (std::abs(result_.energy.error()) > 0.01) std::printf("Energy      ** BALANCE ERROR ABOVE 1 %% **\n");
+    if (material_.parameters().liquid_conductivity_factor > 1) {
+        std::printf("Material    %s\n", material_.description().c_str());
+    }
+    for (const auto& w : c_.warnings) std::printf("Warning     %s\n", w.c_str());
+    for (const auto& f : written_) std::printf("Files       %s\n", f.c_str());
+    std::printf("Caution     %s\n", post::planning_caution);
+}
+
+// Results whose energy balance is off by more than 1 % are written, but the exit code says so.
+int RunCommand::balance_status() const {
+    const double error = result_.energy.error();
+    if (std::abs(error) <= 0.01) return exit_code::ok;
+    std::fprintf(stderr, "heatbead: the energy balance is off by %.2f %% (more than 1 %%): the results are "
+                         "not trustworthy; refine the grid or reduce solver.max_temperature_change\n",
+                 error * 100);
+    return exit_code::outside_validity;
+}
+
 }  // namespace
 
 int run_command(const LoadedCase& loaded, const RunOptions& options) {
     // Handlers first: a Ctrl-C while the grid is built must also end cleanly.
     catch_interrupts();
-    const Case& c = loaded.value;
     if (options.threads > 0) omp_set_num_threads(options.threads);
-    const std::filesystem::path out = options.out_dir.empty()
-                                          ? std::filesystem::path("results") / std::filesystem::path(c.file).stem()
-                                          : std::filesystem::path(options.out_dir);
-
-    const mesh::Grid grid = mesh::build_grid(c.joint, c.grid);
-    const Material material = make_material(c.base);
-    PreparedRun prepared = prepare_run(c, grid, material);
-    Simulation& sim = *prepared.sim;
-    const auto wants = [&](std::string_view kind) {
-        return std::find(c.output.files.begin(), c.output.files.end(), kind) != c.output.files.end();
-    };
-    // Temperature snapshots go to a folder that only gets its final name once the run completed.
-    const auto series_dir = out / "temperature_series", series_partial = out / "temperature_series.partial";
-    std::optional<post::VtkSeries> series;
-    double next_snapshot = 0;
-    if (wants("vtk")) {
-        std::filesystem::remove_all(series_partial);
-        series.emplace(series_partial, "temperature");
-        sim.add_observer([&](double t, std::span<const double> T) {
-            if (t + 1e-12 < next_snapshot) return;
-            series->add(t, grid, sim.cells(), sim.active(), {{"temperature", T}});
-            next_snapshot = t + c.output.snapshot_interval;
-        });
-    }
-
-    const RunEstimate estimate = estimate_run(c, grid, material);
-    ProgressPrinter progress(options.quiet, estimate.simulated_time);
-    const auto start = std::chrono::steady_clock::now();
-    const RunResult result =
-        sim.run(interrupt_flag(), [&](double t, double x, double dt, double hot) { progress.update(t, x, dt, hot); });
-    const double wall = std::chrono::duration<double>(std::chrono::steady_clock::now() - start).count();
-    progress.finish();
-    if (!result.completed || interrupt_flag().load()) {
-        std::error_code ignored;
-        std::filesystem::remove_all(series_partial, ignored);
-        if (std::filesystem::is_directory(out, ignored) && std::filesystem::is_empty(out, ignored)) {
-            std::filesystem::remove(out, ignored);
-        }
-        std::fprintf(stderr, "heatbead: run %s at t = %.2f s; nothing was written\n",
-                     interrupt_flag().load() ? "interrupted" : result.stop_reason.c_str(), result.end_time);
-        return exit_code::run_failed;
-    }
-
-    const RunAnalysis analysis = analyse_run(c, prepared);
-    const post::Summary summary = make_summary(c, result, analysis, wall);
-    std::vector<std::string> written;
-    if (wants("hdf5")) {
-        const auto file = out / "results.h5";
-        post::write_hdf5_results(file, make_record(prepared, loaded, result, analysis));
-        written.push_back(file.string());
-    }
-    if (wants("summary")) {
-        post::write_file_atomically(out / "summary.json", summary.to_json());
-        post::write_file_atomically(out / "summary.csv", summary.to_csv());
-        post::write_file_atomically(out / "probes.csv", probes_csv(analysis));
-        post::write_file_atomically(out / "along_weld.csv", along_weld_csv(analysis));
-        written.push_back((out / "summary.json").string() + ", summary.csv, probes.csv, along_weld.csv");
-    }
-
-    if (wants("contours")) {
-        post::write_file_atomically(out / "section_lines.csv", section_lines_csv(analysis));
-        written.push_back((out / "section_lines.csv").string());
-    }
-    if (series) {
-        series->finish();
-        std::filesystem::remove_all(series_dir);
-        std::filesystem::rename(series_partial, series_dir);
-        write_vtk_results(out, c, prepared, analysis);
-        written.push_back((series_dir / "temperature.pvd").string() + ", fields.vtu, section_lines.vtp");
-    }
-    if (wants("report")) {
-        std::vector<std::string> notes;
-        if (analysis.section.lack_of_fusion_flange) notes.push_back("lack of fusion into the flange predicted");
-        if (analysis.section.lack_of_fusion_web) notes.push_back("lack of fusion into the web predicted");
-        if (!analysis.section.root_fused) notes.push_back("the root is not fused");
-        post::write_report(out / "report.html", make_report_input(c, prepared, analysis, summary, notes));
-        written.push_back((out / "report.html").string());
-    }
-
-    const double error = result.energy.error();
-    if (!options.quiet) {
-        std::printf("heatbead run  %s  (%zu solid cells, %s, %zu steps, stopped at %.1f s: %s)\n", c.file.c_str(),
-                    sim.cells().size(), c.solver.integrator.c_str(), result.steps, result.end_time,
-                    result.stop_reason.c_str());
-        std::printf("%s", summary.to_text().c_str());
-        if (std::abs(error) > 0.01) std::printf("Energy      ** BALANCE ERROR ABOVE 1 %% **\n");
-        if (material.parameters().liquid_conductivity_factor > 1) {
-            std::printf("Material    %s\n", material.description().c_str());
-        }
-        for (const auto& w : c.warnings) std::printf("Warning     %s\n", w.c_str());
-        for (const auto& f : written) std::printf("Files       %s\n", f.c_str());
-        std::printf("Caution     %s\n", planning_caution);
-    }
-    if (std::abs(error) > 0.01) {
-        std::fprintf(stderr, "heatbead: the energy balance is off by %.2f %% (more than 1 %%): the results are "
-                             "not trustworthy; refine the grid or reduce solver.max_temperature_change\n",
-                     error * 100);
-        return exit_code::outside_validity;
-    }
-    return exit_code::ok;
+    RunCommand command(loaded, options);
+    return command.run();
 }
 
 }  // namespace heatbead

@@ -1,7 +1,8 @@
 #include "solver/app/run_files.hpp"
 
+#include "post/cautions.hpp"
 #include "post/vtk_output.hpp"
-#include "solver/app/check.hpp"
+#include "solver/core/text.hpp"
 #include "solver/physics/procedure.hpp"
 
 #include <chrono>
@@ -60,10 +61,8 @@ post::ReportInput make_report_input(const Case& c, const PreparedRun& run, const
     r.title = "Fillet pass on a tee: " + std::filesystem::path(c.file).stem().string();
     r.case_file = c.file;
     r.created = now_utc();
-    char buf[128];
     const auto row = [&](const char* name, const char* format, double v) {
-        std::snprintf(buf, sizeof buf, format, v);
-        r.procedure.emplace_back(name, buf);
+        r.procedure.emplace_back(name, format_text(format, v));
     };
     r.procedure.emplace_back("process", std::string(to_string(p.process)) + " " + std::string(to_string(p.transfer)));
     row("current", "%.0f A", p.current);
@@ -80,8 +79,7 @@ post::ReportInput make_report_input(const Case& c, const PreparedRun& run, const
         std::string value = item.text;
         if (value.empty()) {
             if (item.value && !std::isnan(*item.value)) {
-                std::snprintf(buf, sizeof buf, "%.*f %s", item.decimals, *item.value, item.unit.c_str());
-                value = buf;
+                value = format_text("%.*f %s", item.decimals, *item.value, item.unit.c_str());
             } else {
                 value = "n/a";
             }
@@ -123,7 +121,7 @@ post::ReportInput make_report_input(const Case& c, const PreparedRun& run, const
     }
     r.warnings = c.warnings;
     r.warnings.insert(r.warnings.end(), notes.begin(), notes.end());
-    r.caution = planning_caution;
+    r.caution = post::planning_caution;
     return r;
 }
 

@@ -3,11 +3,12 @@
 #include "solver/app/interrupt.hpp"
 
 #include "post/atomic_file.hpp"
+#include "post/cautions.hpp"
 #include "post/hdf5_results.hpp"
 #include "post/sweep_report.hpp"
 #include "solver/studies/run_setup.hpp"
-#include "solver/app/check.hpp"
 #include "solver/core/exit_codes.hpp"
+#include "solver/core/text.hpp"
 #include "solver/app/run_command.hpp"
 #include "solver/app/run_files.hpp"
 #include "solver/studies/sweep_plan.hpp"
@@ -40,10 +41,6 @@ namespace fs = std::filesystem;
 namespace {
 
 constexpr double nan = std::numeric_limits<double>::quiet_NaN();
-
-const char* const sweep_caution =
-    "Each point is an estimate for planning; trends across a sweep are what it shows best. Fusion, hardness and "
-    "preheat of a procedure are proven by its qualification under the governing welding code.";
 
 // One point to run: its overrides and identity.
 struct Job {
@@ -138,11 +135,7 @@ std::string csv_cell(const std::string& s) {
 std::string cell_text(const nlohmann::json& v) {
     if (v.is_null()) return "";
     if (v.is_string()) return v.get<std::string>();
-    if (v.is_number()) {
-        char buf[32];
-        std::snprintf(buf, sizeof buf, "%.10g", v.get<double>());
-        return buf;
-    }
+    if (v.is_number()) return format_text("%.10g", v.get<double>());
     return v.dump();
 }
 
@@ -234,7 +227,7 @@ post::SweepReportInput report_of(const std::vector<nlohmann::json>& rows, const 
     r.sweep_file = sweep_file;
     r.created = now_utc();
     r.points_total = total;
-    r.caution = sweep_caution;
+    r.caution = post::sweep_caution;
     for (const auto& [k, u] : c.axes) r.axes.push_back({k, u});
     for (const char* key : main_outputs) {
         for (const auto& [k, u] : c.outputs) {
@@ -333,12 +326,12 @@ struct Progress {
         const double elapsed = std::chrono::duration<double>(std::chrono::steady_clock::now() - start).count();
         const std::size_t ran = done + failed, left = total - skipped - ran;
         const double eta = ran ? elapsed / double(ran) * double(left) : nan;
-        char buf[256];
-        std::snprintf(buf, sizeof buf, "sweep %zu/%zu done, %zu failed, %zu from before; %s%s", done + skipped, total, failed,
-                      skipped, std::isfinite(eta) ? ("about " + std::to_string(int(eta)) + " s left").c_str() : "",
-                      last.empty() ? "" : ("; last: " + last).c_str());
-        if (terminal) std::printf("\r%-120s", buf);
-        else std::printf("%s\n", buf);
+        const std::string line =
+            format_text("sweep %zu/%zu done, %zu failed, %zu from before; %s%s", done + skipped, total, failed, skipped,
+                        std::isfinite(eta) ? ("about " + std::to_string(int(eta)) + " s left").c_str() : "",
+                        last.empty() ? "" : ("; last: " + last).c_str());
+        if (terminal) std::printf("\r%-120s", line.c_str());
+        else std::printf("%s\n", line.c_str());
         std::fflush(stdout);
     }
     void finish() {
@@ -522,7 +515,7 @@ int sweep_command(const std::string& sweep_file, const SweepOptions& o) {
             std::printf("Points      %zu done (%zu this run, %zu from before), %zu failed\n", progress.done + progress.skipped,
                         progress.done, progress.skipped, progress.failed);
             std::printf("Files       %s, table.h5, report.html, sweep.log, points/\n", (out / "table.csv").string().c_str());
-            std::printf("Caution     %s\n", sweep_caution);
+            std::printf("Caution     %s\n", post::sweep_caution);
         }
         if (interrupt_flag().load()) {
             std::fprintf(stderr, "heatbead: sweep interrupted; the points finished are in %s; run it again to go on\n",

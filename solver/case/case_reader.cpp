@@ -4,12 +4,12 @@
 
 #include "solver/case/number_table.hpp"
 #include "solver/case/table_files.hpp"
+#include "solver/core/text.hpp"
 #include "solver/physics/procedure.hpp"
 #include "solver/physics/waveform.hpp"
 
 #include <array>
 #include <cmath>
-#include <cstdio>
 #include <filesystem>
 #include <stdexcept>
 #include <unistd.h>
@@ -36,9 +36,7 @@ Enum enum_of(const std::array<std::string_view, N>& names, const std::string& wo
 }
 
 std::string mm_text(double metres) {
-    char buf[64];
-    std::snprintf(buf, sizeof buf, "%.4g mm", metres / mm);
-    return buf;
+    return format_text("%.4g mm", metres / mm);
 }
 
 void read_joint(Case& c, CaseDocument& doc) {
@@ -167,29 +165,26 @@ void read_waveform_power(Section& procedure, ProcedureSpec& p, const std::string
                                                    "that length of weld");
         return;
     }
-    char buf[160];
     if (power) {
         p.instantaneous_power = *power;
         p.power_basis = "instantaneous power given (ISO/TR 18491)";
     } else if (energy) {
         // E/L is the arc energy per length; the power follows at the travel speed: P = (E/L)·v.
         p.instantaneous_power = *energy / *length * p.travel_speed;
-        std::snprintf(buf, sizeof buf, "instantaneous energy %.4g kJ over %.4g mm (ISO/TR 18491)", *energy / 1e3,
-                      *length * 1e3);
-        p.power_basis = buf;
+        p.power_basis = format_text("instantaneous energy %.4g kJ over %.4g mm (ISO/TR 18491)", *energy / 1e3,
+                                    *length * 1e3);
     } else {
         const std::string path = path_beside(samples, case_path);
         try {
             const WaveformMeans m = read_waveform(path);
             p.instantaneous_power = m.power;
-            std::snprintf(buf, sizeof buf, "instantaneous power of %zu samples over %.4g ms (ISO/TR 18491)", m.samples,
-                          m.duration * 1e3);
-            p.power_basis = buf;
+            p.power_basis = format_text("instantaneous power of %zu samples over %.4g ms (ISO/TR 18491)", m.samples,
+                                        m.duration * 1e3);
             if (std::abs(m.current - p.current) > 0.05 * p.current || std::abs(m.voltage - p.voltage) > 0.05 * p.voltage) {
-                std::snprintf(buf, sizeof buf, "the waveform's means (%.0f A, %.1f V) differ by more than 5 %% from ",
-                              m.current, m.voltage);
-                procedure.error("current", std::string(buf) + "procedure.current and procedure.voltage; give the "
-                                                               "waveform's means there");
+                procedure.error("current", format_text("the waveform's means (%.0f A, %.1f V) differ by more than 5 %% "
+                                                       "from procedure.current and procedure.voltage; give the "
+                                                       "waveform's means there",
+                                                       m.current, m.voltage));
             }
         } catch (const NumberTableError& e) {
             w.error("samples", e.what());
@@ -236,9 +231,7 @@ void read_procedure(Case& c, CaseDocument& doc) {
         gas.argon = pct("argon"), gas.co2 = pct("co2"), gas.oxygen = pct("oxygen"), gas.helium = pct("helium");
         const double sum = gas.argon + gas.co2 + gas.oxygen + gas.helium;
         if (std::abs(sum - 100) > 0.5) {
-            char buf[96];
-            std::snprintf(buf, sizeof buf, "the gas components add up to %.1f %%; they must add up to 100 %%", sum);
-            g.error("argon", buf);
+            g.error("argon", format_text("the gas components add up to %.1f %%; they must add up to 100 %%", sum));
         }
         p.gas = gas;
     }
@@ -403,12 +396,10 @@ void check_grid_size(Case& c, CaseDocument& doc, const SolverFacts& facts) {
     const double upper = cells * facts.bytes_per_solid_cell;
     const double needed = upper > c.memory_limit ? facts.run_memory(mesh::build_grid(c.joint, c.grid)) : upper;
     if (needed > c.memory_limit) {
-        char buf[256];
-        std::snprintf(buf, sizeof buf,
-                      "the grid needs about %.4g MB (%.3g cells), above the memory limit of %.4g MB; "
-                      "use a coarser finest/along_weld spacing, a smaller refine_margin, or raise memory_limit",
-                      needed / 1e6, cells, c.memory_limit / 1e6);
-        doc.error("grid.finest", buf);
+        doc.error("grid.finest",
+                  format_text("the grid needs about %.4g MB (%.3g cells), above the memory limit of %.4g MB; use a "
+                              "coarser finest/along_weld spacing, a smaller refine_margin, or raise memory_limit",
+                              needed / 1e6, cells, c.memory_limit / 1e6));
     }
 }
 

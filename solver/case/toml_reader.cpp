@@ -1,5 +1,7 @@
 #include "solver/case/toml_reader.hpp"
 
+#include "solver/core/text.hpp"
+
 #include <algorithm>
 #include <cerrno>
 #include <cmath>
@@ -22,9 +24,7 @@ std::string quote(std::string_view s) {
             case '\t': out += "\\t"; break;
             default:
                 if (static_cast<unsigned char>(ch) < 0x20) {
-                    char buf[8];
-                    std::snprintf(buf, sizeof buf, "\\u%04x", ch);
-                    out += buf;
+                    out += format_text("\\u%04x", ch);
                 } else {
                     out += ch;
                 }
@@ -366,11 +366,7 @@ std::optional<double> Section::optional_quantity(std::string_view key, units::Di
 
 double Section::number(std::string_view key, std::optional<double> fallback, Bounds bounds) {
     const toml::node* node = find(key);
-    const auto show = [](double v) {
-        char buf[32];
-        std::snprintf(buf, sizeof buf, "%.12g", v);
-        return std::string(buf);
-    };
+    const auto show = [](double v) { return format_text("%.12g", v); };
     const auto allowed = [&] {
         if (std::isfinite(bounds.lo) && std::isfinite(bounds.hi)) {
             return "a number " + std::string(bounds.lo_open ? "above " : "from ") + show(bounds.lo) +

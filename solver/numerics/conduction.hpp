@@ -37,6 +37,49 @@ struct SurfaceLosses {
     std::array<bool, 6> adiabatic{};
 };
 
+inline constexpr double stefan_boltzmann = 5.670374419e-8;  // σ, W/(m2 K4), CODATA 2018 exact value
+
+// Point kernels of prepare(): one cell or one face, no loops. Resistances are per unit area, m² K/W.
+
+// A cell's face areas and the resistances Δ/(2k) of its half cells, centre to face, along x, y, z.
+struct CellFaces {
+    double area_x, area_y, area_z;
+    double half_x, half_y, half_z;
+};
+
+// R = Δ/(2k): conduction from a cell's centre to its face.
+inline double half_cell_resistance(double width, double k) { return width / (2 * k); }
+
+inline CellFaces cell_faces(double dx, double dy, double dz, double k) {
+    return {dy * dz, dx * dz, dx * dy,
+            half_cell_resistance(dx, k), half_cell_resistance(dy, k), half_cell_resistance(dz, k)};
+}
+
+// G_f = A_f / (Δ_P/(2k_P) + Δ_N/(2k_N) + R_c): the harmonic mean of k/Δ of the two cells, with the
+// contact resistance R_c = 1/h_contact on a web–flange face that has not fused (else 0).
+inline double face_conductance(double area, double half_own, double half_other, double contact_resistance) {
+    return area / (half_own + half_other + contact_resistance);
+}
+
+// h_eff = h_c + εσ(T² + T∞²)(T + T∞), T and T∞ in kelvin, so that h_c(T − T∞) + εσ(T⁴ − T∞⁴) =
+// h_eff (T − T∞) exactly (T⁴ − T∞⁴ = (T² + T∞²)(T + T∞)(T − T∞)).
+inline double film_coefficient(const SurfaceLosses& losses, double t_k, double t_amb_k) {
+    return losses.convection +
+           losses.emissivity * stefan_boltzmann * (t_k * t_k + t_amb_k * t_amb_k) * (t_k + t_amb_k);
+}
+
+// G_s = A / (1/h_eff + Δ/(2k)): the surface film in series with the half cell below the free face;
+// 0 when the surface loses nothing (h_eff = 0).
+inline double surface_conductance(double area, double h_eff, double half_own) {
+    return h_eff > 0 ? area / (1.0 / h_eff + half_own) : 0.0;
+}
+
+// Bound on a cell's ΣG / V, which limits forward Euler (dt_e = ρc_min / max ΣG/V): no face conducts
+// more than the cell's own half cell, A/(Δ/(2k)), so ΣG ≤ 2 Σ_x,y,z A/(Δ/(2k)) + G_loss.
+inline double conductance_bound(const CellFaces& f, double loss, double volume) {
+    return (2 * (f.area_y / f.half_y + f.area_z / f.half_z) + 2 * f.area_x / f.half_x + loss) / volume;
+}
+
 // A contiguous range of cell indices [begin, end) that a step must update; cells outside it are
 // still at the initial temperature, with neighbours that are too, and need no work.
 struct CellRange {
@@ -78,6 +121,16 @@ public:
     const Material& material() const { return material_; }
 
 private:
+    // Slices [begin, end) along x.
+    struct Slices {
+        std::size_t begin = 0, end = 0;
+    };
+    // The steps of prepare().
+    Slices slices_to_update(std::span<const double> T, double skip_temperature, std::size_t reach) const;
+    void lag_conductivity(std::span<const double> T, Slices slices);
+    double lag_conductances(std::span<const double> T, Slices slices);
+    double lag_cell(std::size_t i, std::size_t s, double t_cell, double t_amb_k);
+
     const mesh::Grid& grid_;
     const mesh::SolidCells& cells_;
     const Material& material_;

@@ -134,151 +134,219 @@ double Simulation::stored_energy() const {
 
 RunResult Simulation::run(const std::atomic<bool>& interrupt, const ProgressFn& progress) {
     RunResult result;
-    const StepControl& ctl = settings_.control;
+    // Cold slices can be skipped only when nothing but the arc warms them: initial = ambient.
     const bool skip = settings_.skip_cold_blocks && settings_.initial_temperature == losses_.ambient;
-    const double skip_temperature = skip ? settings_.initial_temperature : std::numeric_limits<double>::quiet_NaN();
-
-    enum class Phase { welding, waiting, cooling } phase = Phase::welding;
-    std::size_t p = 0;
-    std::optional<TorchPath> path = passes_[0].path(0.0);
-    std::optional<DoubleEllipsoid> source(std::in_place, *path, passes_[0].shape, passes_[0].net_power);
-    result.pass_start.push_back(0.0);
-    double filler_power = this->filler_power(passes_[0], *path);
-
-    double t = 0, dt = ctl.first_step, stable = 0;
-    double hottest = settings_.initial_temperature;  // hottest active cell after the last step
+    StepState state;
+    state.dt = settings_.control.first_step;
+    state.hottest = settings_.initial_temperature;
+    state.skip_temperature = skip ? settings_.initial_temperature : std::numeric_limits<double>::quiet_NaN();
+    start_pass(state, result, 0);
     for (;;) {
         if (interrupt.load()) {
             result.stop_reason = "interrupted";
             break;
         }
-        if (phase == Phase::welding && t >= path->off_time) {
-            // Weld metal the arc reached in its last half step is laid as it stops.
-            born_.clear();
-            birth(passes_[p], *path, path->off_time);
-            result.pass_end.push_back(t);
-            result.energy.arc += passes_[p].net_power * (path->off_time - path->on_time);
-            phase = p + 1 < passes_.size() ? Phase::waiting : Phase::cooling;
-            path.reset(), source.reset();
-        }
-        if (phase == Phase::waiting) {
-            const Pass& next = passes_[p + 1];
-            const bool ready = next.wait ? t >= result.pass_end.back() + *next.wait - 1e-9
-                                         : hottest <= next.interpass;
-            if (ready) {
-                ++p;
-                path = next.path(t);
-                source.emplace(*path, next.shape, next.net_power);
-                filler_power = this->filler_power(next, *path);
-                result.pass_start.push_back(t);
-                phase = Phase::welding;
-                dt = std::min(dt, ctl.first_step);
-            }
-        }
-        if (phase == Phase::cooling) {
-            if (hottest < settings_.stop_temperature) {
-                result.stop_reason = "every solid cell cooled below the stop temperature";
-                result.completed = true;
-                break;
-            }
-        }
-        if (t >= settings_.time_limit - 1e-12) {
-            // A run that has not laid every pass has not simulated the joint asked for.
-            const bool all_passes = phase == Phase::cooling || (phase == Phase::welding && p + 1 == passes_.size());
-            result.stop_reason = all_passes ? "time limit reached" : "time limit reached before every pass was laid";
-            result.completed = all_passes;
-            break;
-        }
+        if (state.phase == Phase::welding && state.t >= state.path->off_time) end_pass(state, result);
+        if (state.phase == Phase::waiting && next_pass_ready(state, result)) start_pass(state, result, state.pass + 1);
+        if (stop_rule(state, result)) break;
+        choose_step(state, result);
+        const Trial trial = try_step(state);
+        if (reject_step(state, trial, result)) continue;
+        accept_step(state, trial, result, progress);
+    }
+    finish_run(state, result);
+    return result;
+}
 
-        // Step size: growth from the last step, capped by the arc's travel, the next event and
-        // the time limit; then by the integrator's stability once the operator is lagged.
-        double next_event = settings_.time_limit;
-        double cap = ctl.max_step;
-        if (phase == Phase::welding) {
-            next_event = std::min(next_event, path->off_time);
-            if (path->speed > 0) cap = std::min(cap, ctl.travel_fraction * min_semi_axis(passes_[p].shape) / path->speed);
-        } else if (phase == Phase::waiting && passes_[p + 1].wait) {
-            next_event = std::min(next_event, result.pass_end.back() + *passes_[p + 1].wait);
-        }
-        dt = std::min({dt, cap, next_event - t});
-        if (stable > 0) dt = std::min(dt, integrator_->max_step(stable));
+// A pass starts at t with its torch path and source; the first step after it is at most the first step size.
+void Simulation::start_pass(StepState& state, RunResult& result, std::size_t pass) {
+    const Pass& next = passes_[pass];
+    state.pass = pass;
+    state.path = next.path(state.t);
+    state.source.emplace(*state.path, next.shape, next.net_power);
+    state.filler_power = filler_power(next, *state.path);
+    result.pass_start.push_back(state.t);
+    state.phase = Phase::welding;
+    state.dt = std::min(state.dt, settings_.control.first_step);
+}
 
-        std::size_t stages = 0;
-        for (;;) {
-            const double mid = t + dt / 2;
-            source_.clear();
-            born_.clear();
-            if (phase == Phase::welding) {
-                birth(passes_[p], *path, mid);
-                source->deposit(grid_, cells_, active_, mid, source_);
-                const double scale = 1 - filler_power / passes_[p].net_power;
-                for (auto& q : source_) q.watts *= scale;
-            }
-            const std::size_t reach = (stable > 0 ? integrator_->stages(std::min(dt, integrator_->max_step(stable)), stable) : 1) + 2;
-            op_.prepare(T_, active_, source_, skip_temperature, reach);
-            stable = op_.stable_step();
-            if (dt > integrator_->max_step(stable)) {
-                dt = integrator_->max_step(stable);
-                continue;
-            }
-            stages = integrator_->stages(dt, stable);
-            if (stages + 2 <= reach || !skip) break;
-        }
+// The arc stops at t_off: weld metal it reached in its last half step is laid as it stops, and
+// the pass's arc energy Q·(t_off − t_on) is booked.
+void Simulation::end_pass(StepState& state, RunResult& result) {
+    const Pass& pass = passes_[state.pass];
+    born_.clear();
+    birth(pass, *state.path, state.path->off_time);
+    result.pass_end.push_back(state.t);
+    result.energy.arc += pass.net_power * (state.path->off_time - state.path->on_time);
+    state.phase = state.pass + 1 < passes_.size() ? Phase::waiting : Phase::cooling;
+    state.path.reset(), state.source.reset();
+}
 
-        const CellRange r = op_.range();
-        std::copy(H_.begin() + r.begin, H_.begin() + r.end, H_old_.begin() + r.begin);
-        std::copy(T_.begin() + r.begin, T_.begin() + r.end, T_old_.begin() + r.begin);
-        const double lost = integrator_->step(op_, H_, T_, dt);
+// The next pass may start once t ≥ t_end + wait (its fixed wait), or else once the hottest cell
+// has cooled to its interpass temperature.
+bool Simulation::next_pass_ready(const StepState& state, const RunResult& result) const {
+    const Pass& next = passes_[state.pass + 1];
+    return next.wait ? state.t >= wait_end(state, result) - 1e-9 : state.hottest <= next.interpass;
+}
 
-        // The largest change by conduction alone controls the step. Cells the arc heats change as
-        // fast as the source passes them, which the travel limit already resolves; metal born this
-        // step starts cold inside the arc, and its jump says nothing about accuracy.
-        for (const std::size_t c : born_) arc_heated_[c] = 1;
-        for (const auto& q : source_) arc_heated_[q.cell] = 1;
-        // The same sweep finds the hottest cell: cells outside the range are at the initial
-        // temperature, below anything inside it that matters.
-        double change = 0, range_hottest = settings_.initial_temperature;
-#pragma omp parallel for schedule(static) reduction(max : change, range_hottest) if (r.end - r.begin >= mesh::parallel_min_cells)
-        for (std::size_t c = r.begin; c < r.end; ++c) {
-            if (!active_[c]) continue;
-            range_hottest = std::max(range_hottest, T_[c]);
-            if (!arc_heated_[c]) change = std::max(change, std::abs(T_[c] - T_old_[c]));
+// t_end + wait: when the fixed wait before the next pass is over.
+double Simulation::wait_end(const StepState& state, const RunResult& result) const {
+    return result.pass_end.back() + *passes_[state.pass + 1].wait;
+}
+
+// Stop once cooling has taken every solid cell below the stop temperature, or at the time limit.
+bool Simulation::stop_rule(const StepState& state, RunResult& result) const {
+    if (state.phase == Phase::cooling && state.hottest < settings_.stop_temperature) {
+        result.stop_reason = "every solid cell cooled below the stop temperature";
+        result.completed = true;
+        return true;
+    }
+    if (state.t >= settings_.time_limit - 1e-12) {
+        // A run that has not laid every pass has not simulated the joint asked for.
+        const bool all_passes =
+            state.phase == Phase::cooling || (state.phase == Phase::welding && state.pass + 1 == passes_.size());
+        result.stop_reason = all_passes ? "time limit reached" : "time limit reached before every pass was laid";
+        result.completed = all_passes;
+        return true;
+    }
+    return false;
+}
+
+// dt = min(dt, travel_fraction · min semi-axis / v, max_step, t_event − t, dt_max(stable)): growth
+// from the last step, capped by the arc's travel, the next event and the time limit, then by the
+// integrator's stability on the operator lagged last.
+void Simulation::choose_step(StepState& state, const RunResult& result) const {
+    const StepControl& ctl = settings_.control;
+    double next_event = settings_.time_limit;
+    double cap = ctl.max_step;
+    if (state.phase == Phase::welding) {
+        next_event = std::min(next_event, state.path->off_time);
+        if (state.path->speed > 0) {
+            cap = std::min(cap, ctl.travel_fraction * min_semi_axis(passes_[state.pass].shape) / state.path->speed);
         }
-        for (const std::size_t c : born_) arc_heated_[c] = 0;
-        for (const auto& q : source_) arc_heated_[q.cell] = 0;
-        if (change > 2 * ctl.max_change && dt > 1e-6) {
-            std::copy(H_old_.begin() + r.begin, H_old_.begin() + r.end, H_.begin() + r.begin);
-            op_.temperatures(H_, T_);
-            dt /= 2;
-            ++result.rejected;
+    } else if (state.phase == Phase::waiting && passes_[state.pass + 1].wait) {
+        next_event = std::min(next_event, wait_end(state, result));
+    }
+    state.dt = std::min({state.dt, cap, next_event - state.t});
+    if (state.stable > 0) state.dt = std::min(state.dt, integrator_->max_step(state.stable));
+}
+
+// H(t + dt) = integrator step of the operator lagged on T(t), with H(t) and T(t) kept to undo it.
+Simulation::Trial Simulation::try_step(StepState& state) {
+    Trial trial;
+    trial.stages = lag_operator(state);
+    trial.range = op_.range();
+    const CellRange& r = trial.range;
+    std::copy(H_.begin() + r.begin, H_.begin() + r.end, H_old_.begin() + r.begin);
+    std::copy(T_.begin() + r.begin, T_.begin() + r.end, T_old_.begin() + r.begin);
+    trial.lost = integrator_->step(op_, H_, T_, state.dt);
+    measure_change(trial);
+    return trial;
+}
+
+// Lags the operator with the source at mid-step until dt ≤ dt_max(stable) of that operator and,
+// when slices are skipped, the range's widening `reach` covers the step's stages + 2 (heat moves
+// one cell per stage). Returns the stages the step takes.
+std::size_t Simulation::lag_operator(StepState& state) {
+    for (;;) {
+        place_source(state, state.t + state.dt / 2);
+        // The stages of the step at the limit of the last lagged operator; one before the first.
+        const double stable = state.stable;
+        const std::size_t stages_bound =
+            stable > 0 ? integrator_->stages(std::min(state.dt, integrator_->max_step(stable)), stable) : 1;
+        const std::size_t reach = stages_bound + 2;
+        op_.prepare(T_, active_, source_, state.skip_temperature, reach);
+        state.stable = op_.stable_step();
+        if (state.dt > integrator_->max_step(state.stable)) {
+            state.dt = integrator_->max_step(state.stable);
             continue;
         }
+        const std::size_t stages = integrator_->stages(state.dt, state.stable);
+        if (stages + 2 <= reach || std::isnan(state.skip_temperature)) return stages;
+    }
+}
 
-        for (StepObserver* o : observers_) o->step(t, T_old_, t + dt, T_, r.begin, r.end);
-        for (auto& probe : probes_) {
-            probe.time.push_back(t + dt);
-            probe.temperature.push_back(T_[probe.cell]);
-        }
-        result.energy.lost += lost;
-        for (const auto& q : source_) result.energy.deposited += q.watts * dt;
-        if (phase == Phase::welding) result.energy.filler += filler_power * dt;
-        t += dt;
-        ++result.steps;
-        result.stages += stages;
-        result.cell_updates += static_cast<double>(stages) * static_cast<double>(r.end - r.begin);
-        hottest = range_hottest;
-        if (progress) progress(t, path ? path->origin(t)[0] : std::nan(""), dt, hottest);
-        // Next step: aim at the allowed change, growing at most ×2 and shrinking at most ×2.
-        dt *= std::clamp(ctl.max_change / std::max(change, 1e-12), 0.5, 2.0);
+// While welding, weld metal the arc has reached by t is born and the source is deposited at t,
+// its cell powers scaled by (Q − P_f)/Q: the filler's share P_f came with the born metal.
+void Simulation::place_source(const StepState& state, double t) {
+    source_.clear();
+    born_.clear();
+    if (state.phase != Phase::welding) return;
+    const Pass& pass = passes_[state.pass];
+    birth(pass, *state.path, t);
+    state.source->deposit(grid_, cells_, active_, t, source_);
+    const double scale = 1 - state.filler_power / pass.net_power;
+    for (auto& q : source_) q.watts *= scale;
+}
+
+// ΔT = max |T − T_old| over the range's active cells that the arc neither heats nor gave birth to
+// in this step, and the range's hottest active cell.
+void Simulation::measure_change(Trial& trial) {
+    // The largest change by conduction alone controls the step. Cells the arc heats change as
+    // fast as the source passes them, which the travel limit already resolves; metal born this
+    // step starts cold inside the arc, and its jump says nothing about accuracy.
+    for (const std::size_t c : born_) arc_heated_[c] = 1;
+    for (const auto& q : source_) arc_heated_[q.cell] = 1;
+    // The same sweep finds the hottest cell: cells outside the range are at the initial
+    // temperature, below anything inside it that matters.
+    const CellRange& r = trial.range;
+    double change = 0, range_hottest = settings_.initial_temperature;
+#pragma omp parallel for schedule(static) reduction(max : change, range_hottest) if (r.end - r.begin >= mesh::parallel_min_cells)
+    for (std::size_t c = r.begin; c < r.end; ++c) {
+        if (!active_[c]) continue;
+        range_hottest = std::max(range_hottest, T_[c]);
+        if (!arc_heated_[c]) change = std::max(change, std::abs(T_[c] - T_old_[c]));
     }
-    if (phase == Phase::welding && result.stop_reason == "time limit reached") {
-        result.energy.arc += passes_[p].net_power * (t - path->on_time);
-        result.pass_end.push_back(t);
+    for (const std::size_t c : born_) arc_heated_[c] = 0;
+    for (const auto& q : source_) arc_heated_[q.cell] = 0;
+    trial.change = change;
+    trial.hottest = range_hottest;
+}
+
+// A step with ΔT > 2 · max_change is undone (H ← H_old, T = T(H)) and retried at dt/2, down to 1 µs.
+bool Simulation::reject_step(StepState& state, const Trial& trial, RunResult& result) {
+    const bool too_large = trial.change > 2 * settings_.control.max_change && state.dt > 1e-6;
+    if (too_large) {
+        const CellRange& r = trial.range;
+        std::copy(H_old_.begin() + r.begin, H_old_.begin() + r.end, H_.begin() + r.begin);
+        op_.temperatures(H_, T_);
+        state.dt /= 2;
+        ++result.rejected;
     }
-    result.end_time = t;
+    return too_large;
+}
+
+// An accepted step is told to the observers and probes and booked (lost, deposited Σ Q_P·dt,
+// filler P_f·dt); the next step aims at the allowed change: dt ← dt · clamp(max_change/ΔT, ½, 2).
+void Simulation::accept_step(StepState& state, const Trial& trial, RunResult& result, const ProgressFn& progress) {
+    const CellRange& r = trial.range;
+    const double dt = state.dt;
+    for (StepObserver* o : observers_) o->step(state.t, T_old_, state.t + dt, T_, r.begin, r.end);
+    for (auto& probe : probes_) {
+        probe.time.push_back(state.t + dt);
+        probe.temperature.push_back(T_[probe.cell]);
+    }
+    result.energy.lost += trial.lost;
+    for (const auto& q : source_) result.energy.deposited += q.watts * dt;
+    if (state.phase == Phase::welding) result.energy.filler += state.filler_power * dt;
+    state.t += dt;
+    ++result.steps;
+    result.stages += trial.stages;
+    result.cell_updates += static_cast<double>(trial.stages) * static_cast<double>(r.end - r.begin);
+    state.hottest = trial.hottest;
+    if (progress) progress(state.t, state.path ? state.path->origin(state.t)[0] : std::nan(""), dt, state.hottest);
+    state.dt *= std::clamp(settings_.control.max_change / std::max(trial.change, 1e-12), 0.5, 2.0);
+}
+
+// A last pass cut off by the time limit is booked up to then, Q·(t − t_on); then the totals.
+void Simulation::finish_run(const StepState& state, RunResult& result) const {
+    if (state.phase == Phase::welding && result.stop_reason == "time limit reached") {
+        result.energy.arc += passes_[state.pass].net_power * (state.t - state.path->on_time);
+        result.pass_end.push_back(state.t);
+    }
+    result.end_time = state.t;
     result.max_temperature = max_temperature();
     result.energy.stored = stored_energy();
-    return result;
 }
 
 }  // namespace heatbead

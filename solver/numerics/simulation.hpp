@@ -120,6 +120,46 @@ public:
     std::span<const std::uint8_t> active() const { return active_; }
 
 private:
+    enum class Phase { welding, waiting, cooling };
+
+    // What run() carries from one step to the next.
+    struct StepState {
+        Phase phase = Phase::welding;
+        std::size_t pass = 0;                   // the pass being laid; while waiting, the last one laid
+        std::optional<TorchPath> path;          // the current pass's torch path, while welding
+        std::optional<DoubleEllipsoid> source;  // and its heat source
+        double filler_power = 0;                // W: the current pass's filler share P_f (filler_power())
+        double t = 0;                           // s: time reached
+        double dt = 0;                          // s: the step to try next
+        double stable = 0;                      // s: forward-Euler limit of the last lagged operator (0: none yet)
+        double hottest = 0;                     // °C: hottest active cell after the last accepted step
+        double skip_temperature = 0;            // the initial temperature when cold slices are skipped, else NaN
+    };
+
+    // One tried step: the cells it updated, its cost, and what the step control judges it by.
+    struct Trial {
+        CellRange range;
+        std::size_t stages = 0;
+        double lost = 0;     // J through free surfaces
+        double change = 0;   // K: the largest change by conduction alone
+        double hottest = 0;  // °C: the hottest active cell of the range
+    };
+
+    // The steps of run(), in the order it takes them (simulation.cpp has the rule of each).
+    void start_pass(StepState& state, RunResult& result, std::size_t pass);
+    void end_pass(StepState& state, RunResult& result);
+    bool next_pass_ready(const StepState& state, const RunResult& result) const;
+    double wait_end(const StepState& state, const RunResult& result) const;
+    bool stop_rule(const StepState& state, RunResult& result) const;
+    void choose_step(StepState& state, const RunResult& result) const;
+    Trial try_step(StepState& state);
+    std::size_t lag_operator(StepState& state);
+    void place_source(const StepState& state, double t);
+    void measure_change(Trial& trial);
+    bool reject_step(StepState& state, const Trial& trial, RunResult& result);
+    void accept_step(StepState& state, const Trial& trial, RunResult& result, const ProgressFn& progress);
+    void finish_run(const StepState& state, RunResult& result) const;
+
     void birth(const Pass& pass, const TorchPath& path, double t);
     double max_temperature() const;
     double filler_power(const Pass& pass, const TorchPath& path) const;

@@ -22,7 +22,7 @@ struct MaterialError : std::runtime_error {
 };
 
 struct MaterialParameters {
-    double solidus = 1495, liquidus = 1540;   // °C (one published weld model used these; REFERENCES §7)
+    double solidus = 1495, liquidus = 1540;   // °C, typical of a C–Mn steel (from memory)
     double latent_heat = 277e3;               // J/kg
     double liquid_conductivity_factor = 1.0;  // multiplies k above liquidus (stand-in for pool stirring),
                                               // ramped linearly over the mushy range

@@ -1,22 +1,14 @@
 #include "solver/physics/procedure.hpp"
 
 #include "solver/physics/material.hpp"
+#include "solver/core/text.hpp"
 
 #include <algorithm>
 #include <array>
 #include <cmath>
-#include <cstdio>
 #include <numbers>
 
 namespace heatbead {
-
-namespace {
-std::string fmt(const char* format, double a, double b = 0) {
-    char buf[256];
-    std::snprintf(buf, sizeof buf, format, a, b);
-    return buf;
-}
-}  // namespace
 
 EfficiencyDefault default_arc_efficiency(Process process) {
     switch (process) {
@@ -101,10 +93,11 @@ SourceShape source_from_procedure(const WeldSetup& c) {
     s.depth = std::sqrt((1 - f) * b_arc * b_arc + f * b_drop * b_drop);
     s.front_length = s.half_width;
     s.rear_length = 2.0 * s.half_width;
-    s.rule = fmt("rule of thumb from the bead and the transfer: the arc over the bead (a = face width/2, b = design "
-                 "throat) and a droplet column carrying %.2f of the heat (impact %.1f", f, preset.impact) +
-             fmt(" x droplet share %.2f), one ellipsoid of the same moments; c_f = a, c_r = 2a", share) + " (" +
-             std::string(preset.name) + ": " + std::string(preset.basis) + ")";
+    s.rule = format_text("rule of thumb from the bead and the transfer: the arc over the bead (a = face width/2, "
+                         "b = design throat) and a droplet column carrying %.2f of the heat (impact %.1f x droplet "
+                         "share %.2f), one ellipsoid of the same moments; c_f = a, c_r = 2a",
+                         f, preset.impact, share) +
+             " (" + std::string(preset.name) + ": " + std::string(preset.basis) + ")";
     return s;
 }
 
@@ -129,27 +122,26 @@ std::vector<std::string> plausibility_warnings(const WeldSetup& c) {
     std::vector<std::string> w;
     const auto& p = c.procedure;
     const double q_kj_mm = heat_input(p) * 1e-6;
-    if (q_kj_mm > 5.0) w.push_back(fmt("heat input %.2f kJ/mm is above 5 kJ/mm: unusual for a fillet pass", q_kj_mm));
-    if (p.travel_speed < 1e-3) w.push_back(fmt("travel speed %.2f mm/s is below 1 mm/s: unusual", p.travel_speed * 1e3));
+    if (q_kj_mm > 5.0) w.push_back(format_text("heat input %.2f kJ/mm is above 5 kJ/mm: unusual for a fillet pass", q_kj_mm));
+    if (p.travel_speed < 1e-3) w.push_back(format_text("travel speed %.2f mm/s is below 1 mm/s: unusual", p.travel_speed * 1e3));
     if (c.preheat > 300) {
-        w.push_back(fmt("preheat %.0f degC is above 300 degC: unusual; check the steel's tempering limits",
-                        c.preheat));
+        w.push_back(format_text("preheat %.0f degC is above 300 degC: unusual; check the steel's tempering limits",
+                                c.preheat));
     }
     const bool spray_like = p.transfer == Transfer::spray || p.transfer == Transfer::globular;
     if (p.transfer == Transfer::spray && p.wire_diameter > 0) {
         const double transition = spray_transition_current(p.wire_diameter);
         if (p.current < transition) {
-            w.push_back(fmt("spray transfer at %.0f A is below the usual transition current of about %.0f A",
-                            p.current, transition) +
-                        fmt(" for %.1f mm wire; expect globular transfer (common practice, no source)",
-                            p.wire_diameter * 1e3));
+            w.push_back(format_text("spray transfer at %.0f A is below the usual transition current of about %.0f A "
+                                    "for %.1f mm wire; expect globular transfer (common practice, no source)",
+                                    p.current, transition, p.wire_diameter * 1e3));
         }
     }
     if ((p.transfer == Transfer::spray || p.transfer == Transfer::pulsed_spray) && p.gas &&
         p.gas->argon + p.gas->helium < 80.0) {
-        w.push_back(fmt("spray transfer with %.0f %% CO2 + O2 in the gas: spray needs an argon-rich gas "
-                        "(about 80 %% argon or more); blends with much CO2 spray poorly (common practice, no source)",
-                        p.gas->co2 + p.gas->oxygen));
+        w.push_back(format_text("spray transfer with %.0f %% CO2 + O2 in the gas: spray needs an argon-rich gas (about "
+                                "80 %% argon or more); blends with much CO2 spray poorly (common practice, no source)",
+                                p.gas->co2 + p.gas->oxygen));
     }
     if (spray_like && p.position != Position::flat && p.position != Position::horizontal) {
         w.push_back(std::string("spray and globular transfer work in the flat and horizontal positions only, not ") +
@@ -161,9 +153,9 @@ std::vector<std::string> plausibility_warnings(const WeldSetup& c) {
                     "(cold lap); confirm by a macro-etch (common practice, no source)");
     }
     if (auto d = deposition(c); d && std::abs(d->difference) > 0.15) {
-        w.push_back(fmt("the wire deposits an equal-leg fillet of %.1f mm, ", d->equal_leg * 1e3) +
-                    fmt("%+.0f %% off the legs asked for; check wire feed speed, travel speed and legs",
-                        d->difference * 100));
+        w.push_back(format_text("the wire deposits an equal-leg fillet of %.1f mm, %+.0f %% off the legs asked for; "
+                                "check wire feed speed, travel speed and legs",
+                                d->equal_leg * 1e3, d->difference * 100));
     }
     return w;
 }

@@ -2,8 +2,8 @@
 
 #include "solver/case/number_table.hpp"
 #include "solver/case/toml_reader.hpp"
+#include "solver/core/text.hpp"
 
-#include <cstdio>
 #include <string_view>
 
 namespace heatbead {
@@ -15,6 +15,22 @@ constexpr double mm = 1e-3;
 constexpr std::string_view length_keys[] = {"penetration_flange", "penetration_web", "fused_leg_flange",
                                             "fused_leg_web",      "haz_width_flange", "haz_width_web"};
 constexpr std::string_view unknown_names[] = {"arc_efficiency", "half_width", "depth", "front_length", "rear_length"};
+
+// The rows of the table `file` that `key` of `s` names (a path beside the measurement file `path`);
+// none when it is not given or cannot be read, and the problem recorded at `key`.
+std::vector<NumberRow> table_rows(Section& s, std::string_view key, const std::string& file, const std::string& path,
+                                  const NumberTableLayout& layout) {
+    if (file.empty()) {
+        s.error(key, "missing: a file of rows " + std::string(layout.header));
+        return {};
+    }
+    try {
+        return read_number_table(path_beside(file, path), layout, 2);
+    } catch (const NumberTableError& e) {
+        s.error(key, e.what());
+        return {};
+    }
+}
 
 }  // namespace
 
@@ -48,25 +64,15 @@ Measurements read_measurements(const std::string& path, const Case& c) {
         const auto& [x, y, z] = t.position;
         if (std::isfinite(x) && std::isfinite(y) && std::isfinite(z) &&
             (x < 0 || x > c.joint.weld_length || mesh::material_at(c.joint, y, z) == mesh::Tag::empty)) {
-            char at[96];
-            std::snprintf(at, sizeof at, "(%.1f, %.1f, %.1f) mm", x / mm, y / mm, z / mm);
-            tc.error("x", std::string("the thermocouple at ") + at + " is not inside the plates or the bead of " + c.file);
+            tc.error("x", format_text("the thermocouple at (%.1f, %.1f, %.1f) mm", x / mm, y / mm, z / mm) +
+                              " is not inside the plates or the bead of " + c.file);
         }
         t.uncertainty = tc.quantity("uncertainty", Dimension::temperature, "degC", 15.0, Bounds{0, 500, true, false});
-        const std::string trace = tc.text("trace", "");
-        if (trace.empty()) {
-            tc.error("trace", "missing: a file of rows time_s, temperature_degC");
-        } else {
-            const std::string file = path_beside(trace, path);
-            static constexpr std::string_view names[] = {"time", "temperature"};
-            try {
-                for (const auto& row : read_number_table(file, {"thermocouple trace", names, "time_s, temperature_degC"}, 2)) {
-                    t.time.push_back(row.cells[0].value);
-                    t.temperature.push_back(row.cells[1].value);
-                }
-            } catch (const NumberTableError& e) {
-                tc.error("trace", e.what());
-            }
+        static constexpr std::string_view trace_names[] = {"time", "temperature"};
+        for (const auto& row : table_rows(tc, "trace", tc.text("trace", ""), path,
+                                          {"thermocouple trace", trace_names, "time_s, temperature_degC"})) {
+            t.time.push_back(row.cells[0].value);
+            t.temperature.push_back(row.cells[1].value);
         }
         m.thermocouples.push_back(std::move(t));
     }
@@ -74,18 +80,9 @@ Measurements read_measurements(const std::string& path, const Case& c) {
     if (boundary.present()) {
         const std::string points = boundary.text("points", "");
         m.boundary_uncertainty = boundary.quantity("uncertainty", Dimension::length, "mm", 0.2 * mm, Bounds{0, 10 * mm, true, false});
-        if (points.empty()) {
-            boundary.error("points", "missing: a file of rows y_mm, z_mm");
-        } else {
-            const std::string file = path_beside(points, path);
-            static constexpr std::string_view names[] = {"y", "z"};
-            try {
-                for (const auto& row : read_number_table(file, {"fusion boundary", names, "y_mm, z_mm"}, 2)) {
-                    m.boundary.push_back({row.cells[0].value * mm, row.cells[1].value * mm});
-                }
-            } catch (const NumberTableError& e) {
-                boundary.error("points", e.what());
-            }
+        static constexpr std::string_view point_names[] = {"y", "z"};
+        for (const auto& row : table_rows(boundary, "points", points, path, {"fusion boundary", point_names, "y_mm, z_mm"})) {
+            m.boundary.push_back({row.cells[0].value * mm, row.cells[1].value * mm});
         }
     }
     auto fit = doc.section("fit", false);

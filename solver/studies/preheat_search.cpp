@@ -1,6 +1,7 @@
 #include "solver/studies/preheat_search.hpp"
 
 #include "solver/core/parallel_tasks.hpp"
+#include "solver/core/text.hpp"
 #include "solver/physics/procedure.hpp"
 #include "solver/studies/run_analysis.hpp"
 #include "solver/studies/run_setup.hpp"
@@ -9,7 +10,6 @@
 #include <algorithm>
 #include <chrono>
 #include <cmath>
-#include <cstdio>
 #include <limits>
 #include <omp.h>
 
@@ -18,12 +18,6 @@ namespace heatbead {
 namespace {
 
 constexpr double nan = std::numeric_limits<double>::quiet_NaN();
-
-std::string number(double v, const char* format) {
-    char buf[48];
-    std::snprintf(buf, sizeof buf, format, v);
-    return buf;
-}
 
 // The case as run at `preheat`: preheat and interpass at least that, a stop rule that lets the
 // HAZ cool through 500 °C (and, for a hydrogen-diffusion limit, through 100 °C or long enough).
@@ -58,15 +52,14 @@ void judge(PreheatTrial& t, const Case& c, const RunAnalysis& a, double end_time
         missed.push_back("no HAZ probe at the station reached Ac3 (no fusion line?): nothing to judge");
     } else {
         t.meets_hardness = t.hardness <= limits.hardness_limit;
-        if (!t.meets_hardness) missed.push_back(number(t.hardness, "%.0f HV") + " above " + number(limits.hardness_limit, "%.0f HV"));
+        if (!t.meets_hardness) missed.push_back(format_text("%.0f HV above %.0f HV", t.hardness, limits.hardness_limit));
         t.meets_t8_5 = !limits.min_t8_5 || t.t8_5 >= *limits.min_t8_5;
-        if (!t.meets_t8_5) missed.push_back("t8/5 " + number(t.t8_5, "%.2f s") + " below " + number(*limits.min_t8_5, "%.2f s"));
+        if (!t.meets_t8_5) missed.push_back(format_text("t8/5 %.2f s below %.2f s", t.t8_5, *limits.min_t8_5));
         // Held at or above 100 °C (preheat of 100 °C or more) counts as meeting a hydrogen-diffusion time.
         const double shortest = std::isnan(t.time_to_100) ? held_above_100 : std::min(t.time_to_100, held_above_100);
         t.meets_time_to_100 = !limits.min_time_to_100 || t.preheat >= 100 || shortest >= *limits.min_time_to_100;
         if (!t.meets_time_to_100) {
-            missed.push_back("time to 100 degC " + number(shortest, "%.0f s") + " below " +
-                             number(*limits.min_time_to_100, "%.0f s"));
+            missed.push_back(format_text("time to 100 degC %.0f s below %.0f s", shortest, *limits.min_time_to_100));
         }
     }
     t.passes = missed.empty();

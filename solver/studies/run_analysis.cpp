@@ -3,6 +3,7 @@
 #include "solver/weldability/haz_hardness.hpp"
 #include "solver/weldability/metallurgy.hpp"
 #include "solver/physics/procedure.hpp"
+#include "solver/core/text.hpp"
 
 #include <algorithm>
 #include <cmath>
@@ -83,11 +84,7 @@ RunAnalysis analyse_run(const Case& c, const PreparedRun& run) {
         auto cycle = station.cycle_at(grid, y, z);
         if (!cycle.empty()) a.probes.push_back(probe_from_cycle(name, {x, y, z}, station.times(), std::move(cycle), a.ac1));
     };
-    const auto mm = [](double v) {
-        char buf[16];
-        std::snprintf(buf, sizeof buf, "%.1f", v * 1e3);
-        return std::string(buf);
-    };
+    const auto mm = [](double v) { return format_text("%.1f", v * 1e3); };
     if (deepest.flange) {
         const auto [y, z] = *deepest.flange;
         add("fusion_flange", y, z);
@@ -124,9 +121,7 @@ const ProbeResult* RunAnalysis::hardest() const {
 namespace {
 std::string csv_number(double v, int decimals) {
     if (std::isnan(v)) return "";
-    char buf[32];
-    std::snprintf(buf, sizeof buf, "%.*f", decimals, v);
-    return buf;
+    return format_text("%.*f", decimals, v);
 }
 }  // namespace
 
@@ -231,15 +226,13 @@ post::Summary make_summary(const Case& c, const RunResult& result, const RunAnal
     // Short-circuit transfer on thick plate is known for cold lap (common practice, no source): say
     // so when this run's own fusion into the flange is shallow.
     if (c.procedure.transfer == Transfer::short_circuit && x.penetration_flange < shallow_fusion) {
-        char buf[200];
-        if (x.penetration_flange > 0) {
-            std::snprintf(buf, sizeof buf, "short-circuit transfer fuses only %.2f mm into the flange: risk of cold lap "
-                                           "(incomplete fusion); confirm by a macro-etch", x.penetration_flange * 1e3);
-        } else {
-            std::snprintf(buf, sizeof buf, "short-circuit transfer does not fuse the flange (the fusion line stays %.2f "
-                                           "mm above it): cold lap (incomplete fusion) expected", -x.penetration_flange * 1e3);
-        }
-        s.add_note("Fusion", buf);
+        s.add_note("Fusion", x.penetration_flange > 0
+                                 ? format_text("short-circuit transfer fuses only %.2f mm into the flange: risk of "
+                                               "cold lap (incomplete fusion); confirm by a macro-etch",
+                                               x.penetration_flange * 1e3)
+                                 : format_text("short-circuit transfer does not fuse the flange (the fusion line stays "
+                                               "%.2f mm above it): cold lap (incomplete fusion) expected",
+                                               -x.penetration_flange * 1e3));
     }
     if (x.lack_of_fusion_web) s.add_note("Fusion", "LACK OF FUSION into the web predicted");
     if (a.composition_assumed) {

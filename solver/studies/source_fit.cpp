@@ -2,6 +2,7 @@
 
 #include "solver/studies/least_squares.hpp"
 #include "solver/core/parallel_tasks.hpp"
+#include "solver/core/text.hpp"
 #include "solver/physics/procedure.hpp"
 #include "solver/studies/run_analysis.hpp"
 #include "solver/studies/run_setup.hpp"
@@ -12,7 +13,6 @@
 #include <algorithm>
 #include <atomic>
 #include <cmath>
-#include <cstdio>
 #include <limits>
 #include <map>
 #include <optional>
@@ -21,12 +21,6 @@
 namespace heatbead {
 
 namespace {
-
-std::string fmt(const char* format, double v) {
-    char buf[64];
-    std::snprintf(buf, sizeof buf, format, v);
-    return buf;
-}
 
 // The predicted section quantity by its summary key.
 double section_value(const post::CrossSection& x, const std::string& key) {
@@ -177,7 +171,7 @@ FitResult fit_on_grid(const Case& c, const Measurements& m, std::vector<double> 
     }
     for (const auto& tc : m.thermocouples) {
         for (std::size_t i : compared_samples(tc)) {
-            pb.labels.push_back("thermocouple at " + fmt("%.1f s", tc.time[i]));
+            pb.labels.push_back("thermocouple at " + format_text("%.1f s", tc.time[i]));
             pb.measured.push_back(tc.temperature[i]), pb.uncertainty.push_back(tc.uncertainty);
         }
     }
@@ -205,7 +199,7 @@ FitResult fit_on_grid(const Case& c, const Measurements& m, std::vector<double> 
     for (std::size_t j = 0; j < n; ++j) low.push_back(std::log(pb.low[j] / pb.start[j])), high.push_back(std::log(pb.high[j] / pb.start[j]));
     theta.resize(n, 0.0);
     const LeastSquaresFit ls = levenberg_marquardt(residuals, theta, low, high, iterations, 0.05, [&](int i, double misfit) {
-        if (progress) progress("iteration " + std::to_string(i) + ": misfit " + fmt("%.4g", misfit));
+        if (progress) progress("iteration " + std::to_string(i) + ": misfit " + format_text("%.4g", misfit));
     });
     theta = ls.theta;
     out.iterations = ls.iterations;
@@ -262,11 +256,11 @@ FitResult fit_source(const Case& c, const Measurements& m, int jobs, int threads
     coarse.grid.cross_section.finest = 2 * finest;
     coarse.grid.cross_section.coarsest = std::max(coarse.grid.cross_section.coarsest, 2 * finest);
     coarse.grid.along_weld = 2 * c.grid.along_weld;
-    if (progress) progress("first on a grid of " + fmt("%.2f mm", 2 * finest * 1e3));
+    if (progress) progress("first on a grid of " + format_text("%.2f mm", 2 * finest * 1e3));
     const FitResult first = fit_on_grid(coarse, m, {}, m.iterations, jobs, threads, interrupt, progress);
     std::vector<double> theta;
     for (const auto& u : first.unknowns) theta.push_back(std::log(u.value / u.start));
-    if (progress) progress("then on the case's grid of " + fmt("%.2f mm", finest * 1e3));
+    if (progress) progress("then on the case's grid of " + format_text("%.2f mm", finest * 1e3));
     FitResult out = fit_on_grid(c, m, theta, std::min(m.iterations, 4), jobs, threads, interrupt, progress);
     for (std::size_t j = 0; j < out.unknowns.size(); ++j) out.unknowns[j].start = first.unknowns[j].start;
     out.before = first.before;

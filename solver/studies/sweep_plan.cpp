@@ -1,12 +1,12 @@
 #include "solver/studies/sweep_plan.hpp"
 
+#include "solver/core/text.hpp"
 #include "solver/studies/run_setup.hpp"
 
 #include <toml++/toml.h>
 
 #include <algorithm>
 #include <cmath>
-#include <cstdio>
 #include <fstream>
 #include <numeric>
 #include <random>
@@ -32,17 +32,11 @@ struct Reader {
     }
 };
 
-std::string number_text(double v) {
-    char buf[32];
-    std::snprintf(buf, sizeof buf, "%.10g", v);
-    return buf;
-}
-
 // A TOML value as --set takes it: strings quoted, numbers as they are.
 std::string as_override(const toml::node& node) {
     if (auto s = node.as_string()) return "\"" + s->get() + "\"";
     if (auto i = node.as_integer()) return std::to_string(i->get());
-    if (auto f = node.as_floating_point()) return number_text(f->get());
+    if (auto f = node.as_floating_point()) return format_text("%.10g", f->get());
     if (auto b = node.as_boolean()) return b->get() ? "true" : "false";
     if (node.is_array()) return render(node);
     return "";
@@ -98,7 +92,7 @@ std::vector<std::string> range_values(Reader& r, const toml::table& t, const std
         if (*to < *from) std::reverse(v.begin(), v.end());
     }
     std::vector<std::string> out;
-    for (double x : v) out.push_back(unit.empty() ? number_text(x) : "\"" + number_text(x) + " " + unit + "\"");
+    for (double x : v) out.push_back(unit.empty() ? format_text("%.10g", x) : format_text("\"%.10g %s\"", x, unit.c_str()));
     return out;
 }
 
@@ -138,9 +132,7 @@ void latin_hypercube(SweepPlan& plan, std::size_t n, unsigned seed) {
 std::string text_hash(const std::string& text) {
     std::uint64_t h = 14695981039346656037ull;  // FNV-1a offset basis and prime (Fowler, Noll, Vo)
     for (unsigned char ch : text) h = (h ^ ch) * 1099511628211ull;
-    char buf[17];
-    std::snprintf(buf, sizeof buf, "%016llx", static_cast<unsigned long long>(h));
-    return buf;
+    return format_text("%016llx", static_cast<unsigned long long>(h));
 }
 
 std::vector<Override> point_overrides(const SweepPlan& plan, const SweepPoint& point) {

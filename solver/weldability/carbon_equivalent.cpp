@@ -1,7 +1,8 @@
 #include "solver/weldability/carbon_equivalent.hpp"
 
+#include "solver/core/text.hpp"
+
 #include <cmath>
-#include <cstdio>
 #include <stdexcept>
 
 namespace heatbead {
@@ -41,10 +42,9 @@ std::vector<std::string> outside_ranges(const Composition& c, std::span<const El
     for (const auto& r : ranges) {
         const double v = element(c, r.symbol);
         if (v >= r.lo && v <= r.hi) continue;
-        char buf[160];
-        std::snprintf(buf, sizeof buf, "%s %.4g %% is %s %.4g %%", std::string(r.symbol).c_str(), v,
-                      v < r.lo ? "below" : "above", v < r.lo ? r.lo : r.hi);
-        out.push_back(std::string(buf) + " (" + std::string(what) + ")");
+        out.push_back(format_text("%s %.4g %% is %s %.4g %%", std::string(r.symbol).c_str(), v, v < r.lo ? "below" : "above",
+                                  v < r.lo ? r.lo : r.hi) +
+                      " (" + std::string(what) + ")");
     }
     return out;
 }

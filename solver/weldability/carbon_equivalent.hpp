@@ -1,5 +1,5 @@
 // Carbon equivalents: one number for how readily a steel's HAZ hardens, from its composition
-// (mass per cent). Each formula with its source; REFERENCES §5 of the design notes lists them.
+// (mass per cent). Each formula with its published source.
 #pragma once
 
 #include "solver/weldability/composition.hpp"

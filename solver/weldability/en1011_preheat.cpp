@@ -1,9 +1,9 @@
 #include "solver/weldability/en1011_preheat.hpp"
 
+#include "solver/core/text.hpp"
 #include "solver/weldability/carbon_equivalent.hpp"
 
 #include <cmath>
-#include <cstdio>
 
 namespace heatbead {
 
@@ -11,10 +11,7 @@ namespace {
 
 void check_range(std::vector<std::string>& out, const char* what, double value, double lo, double hi, const char* unit) {
     if (value >= lo && value <= hi) return;
-    char buf[200];
-    std::snprintf(buf, sizeof buf, "%s %.4g%s is outside the method's range %.4g to %.4g%s", what, value, unit, lo, hi,
-                  unit);
-    out.emplace_back(buf);
+    out.push_back(format_text("%s %.4g%s is outside the method's range %.4g to %.4g%s", what, value, unit, lo, hi, unit));
 }
 
 }  // namespace

@@ -8,8 +8,9 @@
 //   ΔT = Q/(2πkR)·exp(−v(R + ξ)/(2α)),  ξ = x − vt,  R = √(ξ² + y² + z²).
 //
 // ── Transient Goldak double ellipsoid (time-integral form after Nguyen et al. 1999) ──────────
-// Goldak, Chakravarti & Bibby (1984) power density, with ξ′ = x − x_c(t′) measured from the
-// source centre x_c(t′) = x0 + v·t′:
+// Nguyen, Ohta, Matsuoka, Suzuki & Maeda, Weld. J. 78 (1999) 265s, for the time integral;
+// Goldak, Chakravarti & Bibby, Metall. Trans. B 15B (1984) 299, for the power density, with
+// ξ′ = x − x_c(t′) measured from the source centre x_c(t′) = x0 + v·t′:
 //   q = 6√3·f·Q/(a·b·c·π^1.5)·exp(−3ξ′²/c² − 3y²/a² − 3z²/b²),
 //   (f, c) = (f_f, c_f) for ξ′ ≥ 0 and (f_r, c_r) for ξ′ < 0, f_f = 2c_f/(c_f + c_r), f_r = 2c_r/(c_f + c_r).
 // The adiabatic surface is replaced by the mirror image in z = 0, so the same expression over all
