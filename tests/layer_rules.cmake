@@ -48,38 +48,35 @@ foreach(layer IN LISTS layers)
   endforeach()
 endforeach()
 
+# forbid_text(FILES REGEX WHY): every line of FILES (relative to SOURCE_DIR) matching REGEX is a problem.
+# A function, not a macro: a macro would re-read the regex's backslashes as escapes.
+function(forbid_text files regex why)
+  foreach(file IN LISTS ${files})
+    file(STRINGS ${SOURCE_DIR}/${file} matched REGEX "${regex}")
+    if(matched)
+      problem("${file}: ${why}: ${matched}")
+    endif()
+  endforeach()
+  set(problems "${problems}" PARENT_SCOPE)
+endfunction()
+
 # The time loop reaches the thermal history through its observer interface, never by name.
 file(GLOB numerics RELATIVE ${SOURCE_DIR} ${SOURCE_DIR}/solver/numerics/*.hpp ${SOURCE_DIR}/solver/numerics/*.cpp)
-foreach(file IN LISTS numerics)
-  file(STRINGS ${SOURCE_DIR}/${file} named REGEX "ThermalHistory|SectionHistory")
-  if(named)
-    problem("${file} names a thermal history; the time loop knows observers only (StepObserver)")
-  endif()
-endforeach()
+forbid_text(numerics "ThermalHistory|SectionHistory"
+            "names a thermal history; the time loop knows observers only (StepObserver)")
 
 # The caution texts live in one place (post/cautions.cpp) that the commands and pages include.
 file(GLOB_RECURSE sources RELATIVE ${SOURCE_DIR} ${SOURCE_DIR}/solver/*.cpp ${SOURCE_DIR}/post/*.cpp)
-foreach(file IN LISTS sources)
-  if(file STREQUAL "post/cautions.cpp")
-    continue()
-  endif()
-  file(STRINGS ${SOURCE_DIR}/${file} texts REGEX "char\\* const [a-z_]*caution|caution[a-z_]* =$|[a-z_]*caution = \"")
-  if(texts)
-    problem("${file} defines a caution text; cautions live in post/cautions.cpp")
-  endif()
-endforeach()
+list(REMOVE_ITEM sources post/cautions.cpp)
+forbid_text(sources "char\\* const [a-z_]*caution|caution[a-z_]* =$|[a-z_]*caution = \""
+            "defines a caution text; cautions live in post/cautions.cpp")
 
 # Nothing in the project points at files outside it: every check names its published source itself
 # (tests/REFERENCES.md lists them all), never a numbered item of another file.
 file(GLOB_RECURSE everything RELATIVE ${SOURCE_DIR} ${SOURCE_DIR}/solver/* ${SOURCE_DIR}/post/* ${SOURCE_DIR}/mesh/*
      ${SOURCE_DIR}/tests/*.cpp ${SOURCE_DIR}/tests/*.hpp ${SOURCE_DIR}/tests/*.py ${SOURCE_DIR}/tests/*.sh
      ${SOURCE_DIR}/tests/analytic/* ${SOURCE_DIR}/cases/*)
-foreach(file IN LISTS everything)
-  file(STRINGS ${SOURCE_DIR}/${file} outside REGEX "\\.\\./shared|REFERENCES|[Cc]heck values? [0-9]")
-  if(outside)
-    problem("${file} cites a file outside the repository: ${outside}")
-  endif()
-endforeach()
+forbid_text(everything "\\.\\./shared|REFERENCES|[Cc]heck values? [0-9]" "cites a file outside the repository")
 
 if(problems)
   message(FATAL_ERROR "heatbead layer rules broken:${problems}")

@@ -20,6 +20,7 @@ if ! out=$(rules); then
   echo "$out"
   exit 1
 fi
+[[ -z $out ]] || { echo "FAIL: the rules pass but print (a warning in layer_rules.cmake?):"; echo "$out"; exit 1; }
 
 # break WHAT FILE LINE EXPECTED: appends LINE to FILE of a fresh copy; the rules must fail saying EXPECTED.
 break_one() {
