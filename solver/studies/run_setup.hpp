@@ -44,7 +44,7 @@ private:
     post::ThermalHistory& history_;
 };
 
-// A run's thermal history, recording from `sim` from now on.
+// A run's thermal history, kept up to date by `sim` from now on.
 struct RecordedHistory {
     std::unique_ptr<post::ThermalHistory> history;
     std::unique_ptr<HistoryRecorder> recorder;
