@@ -69,7 +69,7 @@ struct MovingSourceRun {
                                            double time_limit) const {
         RunSettings s;
         s.initial_temperature = 20;
-        s.stop_temperature = stop;
+        s.stop.temperature = stop;
         s.time_limit = time_limit;
         s.integrator = std::move(integrator);
         return std::make_unique<Simulation>(grid, m, adiabatic_everywhere(), std::vector<Pass>{pass()}, s);

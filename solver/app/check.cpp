@@ -56,6 +56,7 @@ CheckReport make_check_report(const Case& c) {
     r.max_ratio = std::max({grid.x.max_ratio(), grid.y.max_ratio(), grid.z.max_ratio()});
     r.memory = run_memory_bytes(grid);
     r.estimate = estimate_run(c, grid, make_material(c.base));
+    r.stop = stop_plan(c);
     if (c.base.composition) r.carbon_equivalents = carbon_equivalents(*c.base.composition);
     if (c.base.composition && c.filler.diffusible_hydrogen) r.standard_preheat = en1011_method_b(standard_preheat_input(c));
     return r;
@@ -98,8 +99,17 @@ std::string to_text(const CheckReport& r) {
                 "cell updates/s",
                 r.estimate.simulated_time, r.estimate.explicit_step * 1e3, r.estimate.steps,
                 human_seconds(r.estimate.seconds).c_str(), assumed_cell_updates_per_second);
-    out += line("Temperatures preheat %.0f degC, interpass %.0f degC, ambient %.0f degC; stop at %.0f degC",
-                c.temperatures.preheat, c.temperatures.interpass, c.temperatures.ambient, c.solver.stop_temperature);
+    out += line("Temperatures preheat %.0f degC, interpass %.0f degC, ambient %.0f degC", c.temperatures.preheat,
+                c.temperatures.interpass, c.temperatures.ambient);
+    out += line("Stop        %s: every solid cell below %.0f degC after the last pass (%s)",
+                r.stop.automatic ? "by the answers the run gives" : "as given", r.stop.rule.temperature,
+                r.stop.rule.basis.c_str());
+    if (const auto& hold = r.stop.rule.hold; hold && j.weld_length / p.travel_speed + hold->time > c.solver.time_limit) {
+        out += line("            the time limit (%.0f s) comes before the %.0f s after the pass that the time to 100 "
+                    "degC asks for: raise solver.time_limit",
+                    c.solver.time_limit, hold->time);
+    }
+    if (r.stop.never) out += line("            ** CAN NEVER BE MET ** %s", r.stop.never->c_str());
     if (const auto& ce = r.carbon_equivalents) {
         out += line("Steel       CE(IIW) %.3f, Pcm %.3f, CEN %.3f, CET %.3f", ce->iiw, ce->pcm, ce->cen, ce->cet);
     }
@@ -154,6 +164,14 @@ nlohmann::json to_json(const CheckReport& r) {
                        {"explicit_steps", r.estimate.steps},
                        {"run_time", q(r.estimate.seconds, "s")},
                        {"assumed_cell_updates_per_second", assumed_cell_updates_per_second}};
+    out["stop"] = {{"temperature", q(r.stop.rule.temperature, "degC")},
+                   {"automatic", r.stop.automatic},
+                   {"basis", r.stop.rule.basis},
+                   {"not_waited_for", r.stop.dropped},
+                   {"never_met", r.stop.never.value_or("")}};
+    if (const auto& hold = r.stop.rule.hold) {
+        out["stop"]["hold"] = {{"after_last_pass", q(hold->time, "s")}, {"below", q(hold->temperature, "degC")}};
+    }
     if (const auto& ce = r.carbon_equivalents) {
         out["carbon_equivalents"] = {{"CE_IIW", ce->iiw}, {"Pcm", ce->pcm}, {"CEN", ce->cen}, {"CET", ce->cet}};
     }

@@ -6,6 +6,7 @@
 #include "solver/weldability/en1011_preheat.hpp"
 #include "solver/physics/procedure.hpp"
 #include "solver/numerics/run_estimate.hpp"
+#include "solver/studies/run_setup.hpp"
 
 #include <nlohmann/json.hpp>
 
@@ -27,6 +28,7 @@ struct CheckReport {
     double h_min = 0, h_max = 0, max_ratio = 0;
     double memory = 0;  // bytes
     RunEstimate estimate;
+    StopPlan stop;  // where the run will stop and why (solver/studies/run_setup.hpp)
     // With a base-metal composition: its carbon equivalents; with the filler's hydrogen too, the
     // EN 1011-2 method B preheat (a quick look before `heatbead preheat`).
     std::optional<CarbonEquivalents> carbon_equivalents;

@@ -152,7 +152,9 @@ void RunCommand::start_snapshots() {
 
 void RunCommand::simulate() {
     const RunEstimate estimate = estimate_run(c_, grid_, material_);
-    ProgressPrinter progress(options_.quiet, estimate.simulated_time);
+    const StopPlan stop = stop_plan(c_);
+    ProgressPrinter progress(options_.quiet,
+                             {estimate.simulated_time, stop.rule.temperature, stop.base, c_.solver.time_limit});
     const auto start = std::chrono::steady_clock::now();
     result_ = prepared_.sim->run(interrupt_flag(),
                                  [&](double t, double x, double dt, double hot) { progress.update(t, x, dt, hot); });

@@ -13,6 +13,7 @@
 #include <array>
 #include <optional>
 #include <string>
+#include <string_view>
 #include <vector>
 
 namespace heatbead {
@@ -39,12 +40,21 @@ struct SurfaceSpec {
     double contact_conductance = 1000; // W/(m2 K), web edge on flange outside the weld
 };
 
+// How the weld metal enters a run: born as the droplets arrive (at the transfer mode's droplet
+// temperature), born at the liquidus (the earlier model), or present from the start at the
+// preheat with the whole net power in the source (the classical model).
+enum class WeldMetalModel { as_droplets, at_liquidus, present_from_start };
+inline constexpr std::array<std::string_view, 3> weld_metal_names{"as_droplets", "at_liquidus", "present_from_start"};
+
 struct SolverSpec {
     std::string integrator = "rkl2";
     double max_temperature_change = 500;  // K per step (twice this rejects the step)
     double travel_per_step = 0.25;        // arc travel per step / smallest source semi-axis
     double time_limit = 600;       // s
-    double stop_temperature = 300; // degC
+    // degC, given by the user; empty ("auto"): the stop follows the answers the run must give
+    // (solver/studies/run_setup.hpp, stop_plan).
+    std::optional<double> stop_temperature;
+    WeldMetalModel weld_metal = WeldMetalModel::as_droplets;
 };
 
 struct OutputSpec {

@@ -334,9 +334,17 @@ void read_solver(Case& c, CaseDocument& doc, const SolverFacts& facts) {
     c.solver.max_temperature_change = s.number("max_temperature_change", 500.0, Bounds::closed(1, 2000));
     c.solver.travel_per_step = s.number("travel_per_step", 0.25, Bounds::closed(0.01, 1));
     c.solver.time_limit = s.quantity("time_limit", Dimension::time, "s", 600.0, Bounds{0, 1e6, true, false});
-    // t8/5 needs every point to cool through 500 degC; the stop must lie between that and ambient.
-    c.solver.stop_temperature = s.quantity("stop_temperature", Dimension::temperature, "degC", 300.0,
-                                           Bounds{c.temperatures.ambient, 500, true, false});
+    // "auto" (or no key): the run stops once the answers it must give are known (stop_plan). A
+    // temperature given is kept: t8/5 needs every point to cool through 500 degC, so it lies
+    // between that and ambient.
+    constexpr std::array<std::string_view, 1> automatic{"auto"};
+    if (!s.has("stop_temperature") || s.holds_word("stop_temperature")) {
+        s.choice("stop_temperature", automatic, "auto");
+    } else {
+        c.solver.stop_temperature = s.quantity("stop_temperature", Dimension::temperature, "degC", std::nullopt,
+                                               Bounds{c.temperatures.ambient, 500, true, false});
+    }
+    c.solver.weld_metal = enum_of<WeldMetalModel>(weld_metal_names, s.choice("weld_metal", weld_metal_names, "as_droplets"));
 }
 
 void read_output(Case& c, CaseDocument& doc) {

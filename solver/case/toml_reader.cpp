@@ -3,6 +3,7 @@
 #include "solver/core/text.hpp"
 
 #include <algorithm>
+#include <cctype>
 #include <cerrno>
 #include <cmath>
 #include <cstring>
@@ -298,6 +299,12 @@ std::string CaseDocument::resolved_toml() const {
 std::string Section::key_path(std::string_view key) const { return name_ + "." + std::string(key); }
 
 bool Section::has(std::string_view key) const { return table_ && table_->contains(key); }
+
+bool Section::holds_word(std::string_view key) const {
+    const toml::node* node = table_ ? table_->get(key) : nullptr;
+    const auto* s = node ? node->as_string() : nullptr;
+    return s && !s->get().empty() && std::isalpha(static_cast<unsigned char>(s->get().front()));
+}
 
 const toml::node* Section::find(std::string_view key) {
     doc_->declare(name_, std::string(key));

@@ -142,6 +142,9 @@ public:
     // A problem with a key of this section found by a cross-check.
     void error(std::string_view key, std::string message);
     bool has(std::string_view key) const;
+    // The key holds a word (a string starting with a letter), not a quantity such as "300 degC":
+    // for keys that take either, e.g. "auto" or a temperature.
+    bool holds_word(std::string_view key) const;
     std::string key_path(std::string_view key) const;
 
 private:

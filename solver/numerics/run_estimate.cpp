@@ -1,6 +1,7 @@
 #include "solver/numerics/run_estimate.hpp"
 
 #include <algorithm>
+#include <limits>
 #include <numbers>
 
 namespace heatbead {
@@ -31,11 +32,14 @@ double stable_explicit_step(const mesh::Grid& grid, double diffusivity) {
 RunEstimate estimate_run(const EstimateInputs& run, const mesh::Grid& grid, const Material& material) {
     RunEstimate e;
     // Cooling after the arc has passed, thick-plate line-source estimate (Rosenthal 1946):
-    // T − T0 = (q/v) / (2πk·t)  ⇒  t = (q/v) / (2πk (T_stop − T0)).
+    // T − T0 = (q/v) / (2πk·t)  ⇒  t = (q/v) / (2πk (T_stop − T0)), or the hold if sooner. A stop
+    // at or below the preheat is never met by cooling: the run lasts to the time limit.
     const double k = material.conductivity(run.stop_temperature);
-    const double cooling =
-        run.heat_input / (2 * std::numbers::pi * k * (run.stop_temperature - run.preheat));
-    e.simulated_time = std::min(run.time_limit, run.weld_length / run.travel_speed + std::max(0.0, cooling));
+    double cooling = run.stop_temperature > run.preheat
+                         ? run.heat_input / (2 * std::numbers::pi * k * (run.stop_temperature - run.preheat))
+                         : std::numeric_limits<double>::infinity();
+    if (run.hold) cooling = std::min(cooling, *run.hold);
+    e.simulated_time = std::min(run.time_limit, run.weld_length / run.travel_speed + cooling);
     e.explicit_step = stable_explicit_step(grid, material.max_diffusivity());
     e.steps = e.simulated_time / e.explicit_step;
     e.cell_updates = e.steps * static_cast<double>(grid.solid_cells());

@@ -4,6 +4,8 @@
 #include "mesh/grid.hpp"
 #include "solver/physics/material.hpp"
 
+#include <optional>
+
 namespace heatbead {
 
 // Storage per solid cell, counted from the arrays a run holds (doubles unless noted):
@@ -23,7 +25,7 @@ double run_memory_bytes(const mesh::Grid& grid);
 double stable_explicit_step(const mesh::Grid& grid, double diffusivity);
 
 struct RunEstimate {
-    double simulated_time = 0;  // s: weld time L/v plus cooling to the stop temperature
+    double simulated_time = 0;  // s: weld time L/v plus cooling to the stop temperature (or the hold)
     double explicit_step = 0;   // s
     double steps = 0;           // explicit steps
     double cell_updates = 0;    // steps × solid cells
@@ -33,10 +35,12 @@ struct RunEstimate {
 // `heatbead bench` measures it: a figure for planning only.
 inline constexpr double assumed_cell_updates_per_second = 1.5e8;
 // What the estimate reads of a run: weld length [m], travel speed [m/s], heat input [J/m], the
-// preheat and stop temperatures [°C] and the time limit [s].
+// preheat and stop temperatures [°C] and the time limit [s]; the hold after the pass [s] when the
+// stop rule has one (StopRule::Hold).
 struct EstimateInputs {
     double weld_length = 0, travel_speed = 0, heat_input = 0;
     double preheat = 20, stop_temperature = 300, time_limit = 600;
+    std::optional<double> hold;
 };
 RunEstimate estimate_run(const EstimateInputs& run, const mesh::Grid& grid, const Material& material);
 

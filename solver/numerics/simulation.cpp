@@ -1,5 +1,7 @@
 #include "solver/numerics/simulation.hpp"
 
+#include "solver/core/text.hpp"
+
 #include <algorithm>
 #include <cmath>
 #include <limits>
@@ -41,8 +43,15 @@ Simulation::Simulation(const mesh::Grid& grid, const Material& material, Surface
     for (std::size_t s = 0; s < ns; ++s) {
         if (cells_.tag[s] != mesh::Tag::weld) continue;
         weld_side_[s] = grid_.y.centre(cells_.j[s]) >= web_centre ? 1 : -1;
+        if (present_from_start(weld_side_[s])) continue;
         for (std::size_t i = 0; i < cells_.nx; ++i) active_[cells_.index(i, s)] = 0;
     }
+}
+
+// The classical model: a pass without a birth temperature has its weld metal there from t = 0.
+bool Simulation::present_from_start(int side) const {
+    return std::any_of(passes_.begin(), passes_.end(),
+                       [side](const Pass& p) { return p.side == side && !p.birth_temperature; });
 }
 
 namespace {
@@ -75,11 +84,12 @@ void Simulation::add_probe(std::string name, const std::array<double, 3>& p) {
 
 void Simulation::birth(const Pass& pass, const TorchPath& path, double t) {
     // Weld metal exists where the arc has been: cells whose centre the ellipsoid origin has passed.
-    // It arrives molten, at the liquidus; the heat that took it there is the filler's share of the
-    // arc power, taken off the source for the whole pass (filler_power).
+    // It arrives as the droplets reach the pool, at the pass's birth temperature; the heat that
+    // took it there is the filler's share of the arc power, taken off the source for the whole
+    // pass (filler_power). Metal present from the start is never born.
+    if (pass.side == 0 || !pass.birth_temperature) return;
     const double x_arc = path.origin(t)[0];
-    const double T_birth = material_.parameters().liquidus, H_birth = material_.enthalpy(T_birth);
-    if (pass.side == 0) return;
+    const double T_birth = *pass.birth_temperature, H_birth = material_.enthalpy(T_birth);
     for (std::size_t i = 0; i < cells_.nx && grid_.x.centre(i) <= x_arc; ++i) {
         for (std::size_t s = 0; s < cells_.ns; ++s) {
             if (weld_side_[s] != pass.side) continue;
@@ -95,12 +105,14 @@ void Simulation::birth(const Pass& pass, const TorchPath& path, double t) {
 }
 
 double Simulation::filler_power(const Pass& pass, const TorchPath& path) const {
-    // The heat to bring this pass's weld metal from the initial temperature to the liquidus,
-    // spread evenly over the arc time: the weld metal is fed at a steady rate.
-    const double dH = material_.enthalpy(material_.parameters().liquidus) - material_.enthalpy(settings_.initial_temperature);
+    // P_f = Σ V·(H(T_birth) − H(T0)) / (t_off − t_on): the heat to bring this pass's weld metal
+    // from the initial temperature to its birth temperature, spread evenly over the arc time (the
+    // wire is fed at a steady rate). None for metal present from the start: it is already there.
+    if (pass.side == 0 || !pass.birth_temperature) return 0;
+    const double dH = material_.enthalpy(*pass.birth_temperature) - material_.enthalpy(settings_.initial_temperature);
     double energy = 0;
     for (std::size_t s = 0; s < cells_.ns; ++s) {
-        if (pass.side == 0 || weld_side_[s] != pass.side) continue;
+        if (weld_side_[s] != pass.side) continue;
         for (std::size_t i = 0; i < cells_.nx; ++i) energy += op_.volume(cells_.index(i, s)) * dH;
     }
     const double power = energy / (path.off_time - path.on_time);
@@ -140,10 +152,12 @@ RunResult Simulation::run(const std::atomic<bool>& interrupt, const ProgressFn& 
     state.dt = settings_.control.first_step;
     state.hottest = settings_.initial_temperature;
     state.skip_temperature = skip ? settings_.initial_temperature : std::numeric_limits<double>::quiet_NaN();
+    result.stop = settings_.stop;
     start_pass(state, result, 0);
     for (;;) {
         if (interrupt.load()) {
             result.stop_reason = "interrupted";
+            result.stop_cause = StopCause::interrupted;
             break;
         }
         if (state.phase == Phase::welding && state.t >= state.path->off_time) end_pass(state, result);
@@ -194,20 +208,35 @@ double Simulation::wait_end(const StepState& state, const RunResult& result) con
     return result.pass_end.back() + *passes_[state.pass + 1].wait;
 }
 
-// Stop once cooling has taken every solid cell below the stop temperature, or at the time limit.
+// Stop once cooling after the last pass has taken every solid cell below the stop temperature,
+// or once the hold time after the last pass is over, or at the time limit.
 bool Simulation::stop_rule(const StepState& state, RunResult& result) const {
-    if (state.phase == Phase::cooling && state.hottest < settings_.stop_temperature) {
-        result.stop_reason = "every solid cell cooled below the stop temperature";
-        result.completed = true;
+    const StopRule& rule = settings_.stop;
+    const auto stop = [&](StopCause cause, std::string reason, bool completed) {
+        result.stop_cause = cause;
+        result.stop_reason = std::move(reason);
+        result.completed = completed;
         return true;
+    };
+    if (state.phase == Phase::cooling && state.hottest < rule.temperature) {
+        return stop(StopCause::cooled, format_text("every solid cell cooled below %.0f degC (%s)", rule.temperature,
+                                                   rule.basis.c_str()),
+                    true);
+    }
+    if (state.phase == Phase::cooling && rule.hold && state.t >= result.pass_end.back() + rule.hold->time - 1e-9 &&
+        state.hottest < rule.hold->temperature) {
+        return stop(StopCause::held,
+                    format_text("%.0f s after the last pass ended, the hottest cell still at %.0f degC: every cell "
+                                "above %.0f degC has stayed above it at least that long (%s)",
+                                state.t - result.pass_end.back(), state.hottest, rule.temperature, rule.basis.c_str()),
+                    true);
     }
     if (state.t >= settings_.time_limit - 1e-12) {
         // A run that has not laid every pass has not simulated the joint asked for.
         const bool all_passes =
             state.phase == Phase::cooling || (state.phase == Phase::welding && state.pass + 1 == passes_.size());
-        result.stop_reason = all_passes ? "time limit reached" : "time limit reached before every pass was laid";
-        result.completed = all_passes;
-        return true;
+        return stop(StopCause::time_limit,
+                    all_passes ? "time limit reached" : "time limit reached before every pass was laid", all_passes);
     }
     return false;
 }
@@ -226,6 +255,9 @@ void Simulation::choose_step(StepState& state, const RunResult& result) const {
         }
     } else if (state.phase == Phase::waiting && passes_[state.pass + 1].wait) {
         next_event = std::min(next_event, wait_end(state, result));
+    } else if (state.phase == Phase::cooling && settings_.stop.hold) {
+        const double hold_end = result.pass_end.back() + settings_.stop.hold->time;
+        if (state.t < hold_end - 1e-9) next_event = std::min(next_event, hold_end);
     }
     state.dt = std::min({state.dt, cap, next_event - state.t});
     if (state.stable > 0) state.dt = std::min(state.dt, integrator_->max_step(state.stable));
@@ -340,7 +372,7 @@ void Simulation::accept_step(StepState& state, const Trial& trial, RunResult& re
 
 // A last pass cut off by the time limit is booked up to then, Q·(t − t_on); then the totals.
 void Simulation::finish_run(const StepState& state, RunResult& result) const {
-    if (state.phase == Phase::welding && result.stop_reason == "time limit reached") {
+    if (state.phase == Phase::welding && result.stop_cause == StopCause::time_limit && result.completed) {
         result.energy.arc += passes_[state.pass].net_power * (state.t - state.path->on_time);
         result.pass_end.push_back(state.t);
     }

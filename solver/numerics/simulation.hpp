@@ -1,9 +1,12 @@
 // One run: the arc passes (one bead, or two with an interpass wait), then the joint cools until
-// every solid cell is below the stop temperature or the time limit is reached.
+// the stop rule is met (every solid cell below its temperature, or held long enough after the
+// last pass) or the time limit is reached.
 //
-// Each step: weld metal the arc has passed is born (void → solid, molten at the liquidus; the
-// heat that took it there is the filler's steady share of the arc's net power, taken off the
-// source, so arc energy = stored + lost still holds); the source is deposited at mid-step; the operator is
+// Each step: weld metal the arc has passed is born (void → solid at the pass's birth temperature,
+// the droplets' as they reach the pool; the heat that took it there from the initial temperature
+// is the filler's steady share of the arc's net power, taken off the source, so arc energy =
+// stored + lost still holds), unless the pass's weld metal was present from the start; the
+// source is deposited at mid-step; the operator is
 // lagged; the integrator advances H; the step is accepted if no cell changed by more than twice
 // the allowed change, else halved and retried; observers record the accepted step.
 #pragma once
@@ -43,11 +46,29 @@ struct Pass {
     double web_centre = 0;       // m
     std::optional<double> wait;  // s after the previous pass ends; else wait for `interpass`
     double interpass = 0;        // °C: start when the hottest cell has cooled to this
+    // °C: the weld metal is born at this temperature as the arc passes (the droplets' temperature
+    // as they reach the pool, or the liquidus). Empty: it is there from t = 0 at the initial
+    // temperature and the whole net power goes into the source (the classical model).
+    std::optional<double> birth_temperature;
+};
+
+// When a run has what it must give: after the last pass, once every solid cell is below
+// `temperature`, or once `hold.time` seconds have passed since the last pass ended with every
+// solid cell below `hold.temperature` (an answer "at least so long" is then known). `basis` says
+// in words why (for the stop reason).
+struct StopRule {
+    struct Hold {
+        double time = 0;         // s after the last pass ended
+        double temperature = 0;  // °C
+    };
+    double temperature = 300;  // °C
+    std::optional<Hold> hold;
+    std::string basis = "the stop temperature";
 };
 
 struct RunSettings {
     double initial_temperature = 20;  // °C
-    double stop_temperature = 300;    // °C
+    StopRule stop;
     double time_limit = 600;          // s
     std::string integrator = "rkl2";
     StepControl control;
@@ -63,8 +84,18 @@ struct EnergyBalance {
     double error() const { return arc > 0 ? (arc - stored - lost) / arc : 0.0; }
 };
 
+// What ended a run.
+enum class StopCause {
+    cooled,        // every solid cell below the stop temperature after the last pass
+    held,          // the hold time after the last pass was over
+    time_limit,    // the time limit, whatever the phase
+    interrupted,
+};
+
 struct RunResult {
-    std::string stop_reason;
+    std::string stop_reason;  // in words: what ended the run, with the stop rule's basis
+    StopCause stop_cause = StopCause::interrupted;
+    StopRule stop;            // the rule the run was given (its temperature and why)
     bool completed = false;   // false when interrupted
     double end_time = 0;
     std::size_t steps = 0, rejected = 0, stages = 0;
@@ -160,6 +191,7 @@ private:
     void accept_step(StepState& state, const Trial& trial, RunResult& result, const ProgressFn& progress);
     void finish_run(const StepState& state, RunResult& result) const;
 
+    bool present_from_start(int side) const;
     void birth(const Pass& pass, const TorchPath& path, double t);
     double max_temperature() const;
     double filler_power(const Pass& pass, const TorchPath& path) const;

@@ -19,16 +19,19 @@ namespace {
 
 constexpr double nan = std::numeric_limits<double>::quiet_NaN();
 
-// The case as run at `preheat`: preheat and interpass at least that, a stop rule that lets the
-// HAZ cool through 500 °C (and, for a hydrogen-diffusion limit, through 100 °C or long enough).
+// The case as run at `preheat`: preheat and interpass at least that, and a stop that lets the HAZ
+// cool through 500 °C and, for a hydrogen-diffusion limit, through 100 °C or long enough. The
+// automatic stop (stop_plan) does both; a stop given in the case is raised clear of the preheat,
+// and for a hydrogen-diffusion limit the automatic one replaces it.
 Case at_preheat(const Case& base, double preheat) {
     Case c = base;
     c.temperatures.preheat = preheat;
     c.temperatures.interpass = std::max(c.temperatures.interpass, preheat);
-    c.solver.stop_temperature = std::max(c.solver.stop_temperature, preheat + 50);
+    auto& stop = c.solver.stop_temperature;
+    if (stop) stop = std::max(*stop, preheat + stop_margin);
     if (const auto& need = c.preheat_search.min_time_to_100; need && preheat < 100) {
-        c.solver.stop_temperature = std::max(99.0, c.temperatures.ambient + 1);
-        c.solver.time_limit += *need;
+        stop.reset();
+        c.solver.time_limit += *need + hold_margin;
     }
     return c;
 }

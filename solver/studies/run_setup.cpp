@@ -4,6 +4,7 @@
 #include "solver/numerics/integrators.hpp"
 #include "solver/numerics/run_estimate.hpp"
 
+#include "solver/core/text.hpp"
 #include "solver/physics/procedure.hpp"
 
 #include <algorithm>
@@ -42,6 +43,13 @@ std::vector<Pass> make_passes(const Case& c) {
         p.web_centre = c.joint.web_offset;
         p.wait = proc.interpass_wait;
         p.interpass = c.temperatures.interpass;
+        switch (c.solver.weld_metal) {
+            case WeldMetalModel::as_droplets:
+                p.birth_temperature = transfer_preset(proc.process, proc.transfer).droplet_temperature;
+                break;
+            case WeldMetalModel::at_liquidus: p.birth_temperature = c.base.liquidus; break;
+            case WeldMetalModel::present_from_start: break;
+        }
         passes.push_back(p);
     }
     return passes;
@@ -58,10 +66,81 @@ std::size_t station_slice(const mesh::Grid& grid, double station) {
 
 }  // namespace
 
+namespace {
+
+struct StopLevel {
+    double temperature;  // °C
+    const char* answer;
+};
+
+std::string joined(const std::vector<std::string>& parts) {
+    std::string out;
+    for (const auto& p : parts) out += (out.empty() ? "" : "; ") + p;
+    return out;
+}
+
+}  // namespace
+
+StopPlan stop_plan(const Case& c) {
+    StopPlan plan;
+    const auto& t = c.temperatures;
+    plan.base = c.joint.sides == 2 ? std::max(t.preheat, t.interpass) : t.preheat;
+    const std::string base_words =
+        format_text(c.joint.sides == 2 && t.interpass > t.preheat ? "the %.0f degC interpass" : "the %.0f degC preheat",
+                    plan.base);
+    if (c.solver.stop_temperature) {
+        plan.automatic = false;
+        plan.rule.temperature = *c.solver.stop_temperature;
+        plan.rule.basis = "solver.stop_temperature given in the case";
+        if (plan.rule.temperature <= plan.base) {
+            plan.never = format_text("solver.stop_temperature %.0f degC is at or below %s: the pass's own cooling "
+                                     "never takes the joint below it, so the run goes on to the time limit (%.0f s)",
+                                     plan.rule.temperature, base_words.c_str(), c.solver.time_limit);
+        }
+        return plan;
+    }
+    std::vector<StopLevel> kept;
+    for (const StopLevel level : {StopLevel{500, "t8/5"}, StopLevel{300, "t8/3"}}) {
+        if (level.temperature > plan.base + stop_margin) {
+            kept.push_back(level);
+        } else {
+            plan.dropped.push_back(format_text("%.0f degC for %s: within %.0f K of %s, which conduction approaches "
+                                               "only slowly",
+                                               level.temperature, level.answer, stop_margin, base_words.c_str()));
+        }
+    }
+    const auto& need = c.preheat_search.min_time_to_100;
+    const bool to_100 = need && plan.base < 100;
+    if (need && !to_100) {
+        plan.dropped.push_back(format_text("100 degC for the time to 100 degC: %s is at or above it, so the joint "
+                                           "never cools to 100 degC in the run (a preheat of 100 degC or more meets "
+                                           "preheat_search.min_time_to_100)",
+                                           base_words.c_str()));
+    }
+    // The hold waits for every cell past the levels above 100 °C (or the fallback below).
+    const double above_100 = kept.empty() ? plan.base + 2 * stop_margin : kept.back().temperature;
+    if (to_100) {
+        plan.rule.temperature = 100;
+        plan.rule.hold = StopRule::Hold{*need + hold_margin, above_100};
+        plan.rule.basis = format_text("the time to 100 degC needs 100 degC, or %.0f s after the last pass with every "
+                                      "cell below %.0f degC (the %.0f s asked by preheat_search.min_time_to_100 + %.0f s)",
+                                      *need + hold_margin, above_100, *need, hold_margin);
+    } else if (!kept.empty()) {
+        plan.rule.temperature = kept.back().temperature;
+        plan.rule.basis = format_text("%s needs %.0f degC", kept.back().answer, kept.back().temperature);
+    } else {
+        plan.rule.temperature = above_100;
+        plan.rule.basis = format_text("no cooling figure can be reached from %s; every peak is past within %.0f K of it",
+                                      base_words.c_str(), 2 * stop_margin);
+    }
+    if (!plan.dropped.empty()) plan.rule.basis += "; not waited for: " + joined(plan.dropped);
+    return plan;
+}
+
 RunSettings make_settings(const Case& c) {
     RunSettings s;
     s.initial_temperature = c.temperatures.preheat;
-    s.stop_temperature = c.solver.stop_temperature;
+    s.stop = stop_plan(c).rule;
     s.time_limit = c.solver.time_limit;
     s.integrator = c.solver.integrator;
     s.control.max_change = c.solver.max_temperature_change;
@@ -91,8 +170,10 @@ RecordedHistory record_history(Simulation& sim, double initial_temperature) {
 }
 
 RunEstimate estimate_run(const Case& c, const mesh::Grid& grid, const Material& material) {
-    const EstimateInputs run{c.joint.weld_length,      c.procedure.travel_speed,   heat_input(c.procedure),
-                             c.temperatures.preheat,   c.solver.stop_temperature, c.solver.time_limit};
+    const StopPlan plan = stop_plan(c);
+    const std::optional<double> hold = plan.rule.hold ? std::optional(plan.rule.hold->time) : std::nullopt;
+    const EstimateInputs run{c.joint.weld_length,   c.procedure.travel_speed, heat_input(c.procedure), plan.base,
+                             plan.rule.temperature, c.solver.time_limit,      hold};
     return estimate_run(run, grid, material);
 }
 

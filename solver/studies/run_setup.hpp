@@ -24,8 +24,43 @@ Material make_material(const MaterialSpec& base);
 SurfaceLosses make_losses(const Case& c);
 // One pass per side: side +1 first; side −1 after the interpass wait (or once the hottest cell
 // has cooled to the interpass temperature).
+// Each pass's weld metal follows solver.weld_metal: born at the transfer mode's droplet
+// temperature (transfer_preset, solver/physics/procedure.hpp), at the base metal's liquidus, or
+// present from the start (no birth temperature).
 std::vector<Pass> make_passes(const Case& c);
 RunSettings make_settings(const Case& c);
+
+// Where a run stops, and why. A run must give t8/5 (cooling through 500 °C) and t8/3 (300 °C) at
+// every HAZ probe, and the time to 100 °C where the case asks for it
+// (preheat_search.min_time_to_100): every solid cell (the hottest active cell) past the lowest of
+// these is every HAZ probe past it. They are measured from the preheat, or the interpass
+// temperature of a second pass when higher:
+// - Conduction brings the joint back toward that base temperature only as 1/t (thick-plate line
+//   source, T − T0 = (q/v)/(2πk·t), Rosenthal 1946), and a finite joint settles above it by the
+//   pass's heat over its heat capacity (about 40 K on the reference tee: 168 kJ into 3.9 kJ/K).
+//   So 500 and 300 °C are not waited for when less than `stop_margin` above the base: dropped,
+//   with the reason, and reported as missing by the analysis.
+// - 100 °C is dropped when the base is at or above it (a preheat of 100 °C or more meets a
+//   time-to-100 °C limit). Otherwise the run may also stop once the time asked (plus
+//   `hold_margin`) has passed since the last pass ended, every cell being past the other levels:
+//   the answer "at least that long" is then known.
+// - Nothing left (a base above 450 °C): the run stops at base + 2 × stop_margin, every peak past.
+// A solver.stop_temperature in the case is kept as it is; `never` says when the pass's own
+// cooling cannot meet it (at or below the base temperature).
+inline constexpr double stop_margin = 50;  // K
+// s: the station's HAZ peaks within about r²/(4α) ≈ 1 s of the arc passing it (r ≈ 5 mm,
+// α ≈ 6·10⁻⁶ m²/s), so with this margin every HAZ probe has been past its peak for the time asked,
+// even with the station at the end of the weld.
+inline constexpr double hold_margin = 10;
+
+struct StopPlan {
+    StopRule rule;                      // what the simulation is given
+    bool automatic = true;              // false: solver.stop_temperature given in the case
+    double base = 20;                   // °C: the preheat, or a second pass's higher interpass
+    std::vector<std::string> dropped;   // needed temperatures not waited for, each with its reason
+    std::optional<std::string> never;   // why the stop cannot be met by the pass's own cooling
+};
+StopPlan stop_plan(const Case& c);
 // The size and rough cost of the case's run on `grid` (solver/numerics/run_estimate.hpp).
 RunEstimate estimate_run(const Case& c, const mesh::Grid& grid, const Material& material);
 
