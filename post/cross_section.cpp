@@ -1,5 +1,7 @@
 #include "post/cross_section.hpp"
 
+#include "mesh/interpolation.hpp"
+
 #include <algorithm>
 #include <cmath>
 #include <cstdint>
@@ -31,20 +33,6 @@ std::vector<double> centres(const mesh::Axis& axis) {
     return c;
 }
 
-// The neighbouring centres around v on a lattice line: v lies between c[lo] and c[hi] at fraction t.
-// Beyond the first or last centre both are that centre (the value is carried out to the boundary).
-struct Bracket {
-    std::size_t lo, hi;
-    double t;
-};
-
-Bracket bracket(const std::vector<double>& c, double v) {
-    const auto above = static_cast<std::size_t>(std::upper_bound(c.begin(), c.end(), v) - c.begin());
-    if (above == 0) return {0, 0, 0.0};
-    if (above == c.size()) return {c.size() - 1, c.size() - 1, 0.0};
-    return {above - 1, above, (v - c[above - 1]) / (c[above] - c[above - 1])};
-}
-
 // One slice of a per-cell field, readable at cell centres and, interpolated, anywhere in the section.
 class SliceField {
 public:
@@ -66,24 +54,11 @@ public:
     double value(std::uint32_t s) const { return field_[cells_.index(slice_, s)]; }
 
     // Bilinear between the four surrounding centres, over the solid ones only with their weights
-    // renormalised (so beside a void the value is linear along the solid edge, constant by a lone solid
-    // corner); the nearest solid corner where those weights vanish; nothing if no corner is solid.
+    // renormalised (mesh/interpolation.hpp: beside a void the value is linear along the solid edge,
+    // constant by a lone solid corner); nothing if no corner is solid.
     std::optional<double> sample(double y, double z) const {
-        const Bracket by = bracket(yc_, y), bz = bracket(zc_, z);
-        const std::array<std::size_t, 4> js{by.lo, by.hi, by.lo, by.hi}, ks{bz.lo, bz.lo, bz.hi, bz.hi};
-        const std::array<double, 4> w{(1 - by.t) * (1 - bz.t), by.t * (1 - bz.t), (1 - by.t) * bz.t, by.t * bz.t};
-        double sum = 0, weight = 0, nearest = std::numeric_limits<double>::infinity();
-        std::optional<double> nearest_value;
-        for (int c = 0; c < 4; ++c) {
-            const std::uint32_t s = at(js[c], ks[c]);
-            if (s == none) continue;
-            sum += w[c] * value(s);
-            weight += w[c];
-            const double d = std::hypot(yc_[js[c]] - y, zc_[ks[c]] - z);
-            if (d < nearest) nearest = d, nearest_value = value(s);
-        }
-        if (weight > 0) return sum / weight;
-        return nearest_value;
+        return mesh::interpolate(mesh::section_corners(grid_, cells_, y, z), [](const mesh::Corner&) { return true; },
+                                 [&](const mesh::Corner& c) { return value(c.s); });
     }
 
     // The solid cell holding (y, z) (a point on a face belongs to the cell above it), if any.

@@ -15,18 +15,23 @@ namespace heatbead::post {
 class SectionHistory {
 public:
     SectionHistory(const mesh::SolidCells& cells, std::size_t slice, double initial_temperature);
+    // Weld metal laid at time t (cell index of mesh::SolidCells; cells of other slices are ignored).
+    void appear(std::size_t cell, double t);
     // The field at the end of an accepted step (all solid cells).
     void record(double t, std::span<const double> T);
     const std::vector<double>& times() const { return times_; }
     std::size_t slice() const { return slice_; }
-    // The cycle at cross-section point (y, z): bilinear between the centres of the four
-    // surrounding cells where all four are solid, else the cell containing the point. Empty if
-    // the point is not in a solid cell.
+    // The cycle at cross-section point (y, z): bilinear between the centres of the four surrounding
+    // cells (mesh/interpolation.hpp), at each step over those that hold metal then (weld metal from
+    // the step it was laid), their weights renormalised; the initial temperature while none does.
+    // Empty if none of the four is solid.
     std::vector<double> cycle_at(const mesh::Grid& grid, double y, double z) const;
 
 private:
     const mesh::SolidCells& cells_;
     std::size_t slice_;
+    double initial_;
+    std::vector<double> laid_;   // per section cell: when its metal was laid (−inf for plate, +inf until laid)
     std::vector<double> times_;
     std::vector<float> values_;  // step-major: values_[n·ns + s]
 };
