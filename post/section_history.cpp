@@ -1,6 +1,7 @@
 #include "post/section_history.hpp"
 
 #include "mesh/interpolation.hpp"
+#include "post/text.hpp"
 
 #include <algorithm>
 #include <cmath>
@@ -88,6 +89,19 @@ CycleFigures cycle_figures(std::span<const double> time, std::span<const double>
         else if (a >= 0 || b >= 0) above += dt * std::max(a, b) / std::abs(a - b);
     }
     f.time_above_ac1 = above;
+    // A figure read as the cycle falls from `upper` through `lower` is missing when the peak stayed
+    // below `upper`, or when the cycle had not fallen through `lower` when the run ended.
+    const auto why = [&](double value, double upper, double lower) -> std::string {
+        if (!std::isnan(value)) return "";
+        if (f.peak < upper) return format_text("peak %.0f degC stays below %.0f degC", f.peak, upper);
+        return format_text("did not cool below %.0f degC by the end of the run at %.1f s (still %.0f degC)", lower,
+                           time.back(), T.back());
+    };
+    f.no_t8_5 = why(f.t8_5, 800, 500);
+    f.no_t8_3 = why(f.t8_3, 800, 300);
+    f.no_rate_540 = why(f.rate_540, 540, 540);
+    f.no_rate_700 = why(f.rate_700, 700, 700);
+    f.no_time_to_100 = why(f.time_to_100, 100, 100);
     return f;
 }
 

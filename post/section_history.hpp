@@ -8,6 +8,7 @@
 #include "mesh/solid_cells.hpp"
 
 #include <span>
+#include <string>
 #include <vector>
 
 namespace heatbead::post {
@@ -45,6 +46,9 @@ struct CycleFigures {
     double rate_700 = 0;           // K/s, the same at 700 °C (sets the phase hardnesses)
     double time_above_ac1 = 0;     // s spent above Ac1
     double time_to_100 = 0;        // s from the peak until it fell below 100 °C (NaN if it has not)
+    // Why a figure above is NaN, in words: "peak 743 degC stays below 800 degC", or "did not cool
+    // below 300 degC by the end of the run at 62.0 s (still 512 degC)"; empty where it exists.
+    std::string no_t8_5, no_t8_3, no_rate_540, no_rate_700, no_time_to_100;
 };
 CycleFigures cycle_figures(std::span<const double> time, std::span<const double> temperature, double ac1);
 
