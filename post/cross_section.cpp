@@ -1,5 +1,7 @@
 #include "post/cross_section.hpp"
 
+#include "mesh/interpolation.hpp"
+
 #include <algorithm>
 #include <cmath>
 #include <cstdint>
@@ -31,20 +33,6 @@ std::vector<double> centres(const mesh::Axis& axis) {
     return c;
 }
 
-// The neighbouring centres around v on a lattice line: v lies between c[lo] and c[hi] at fraction t.
-// Beyond the first or last centre both are that centre (the value is carried out to the boundary).
-struct Bracket {
-    std::size_t lo, hi;
-    double t;
-};
-
-Bracket bracket(const std::vector<double>& c, double v) {
-    const auto above = static_cast<std::size_t>(std::upper_bound(c.begin(), c.end(), v) - c.begin());
-    if (above == 0) return {0, 0, 0.0};
-    if (above == c.size()) return {c.size() - 1, c.size() - 1, 0.0};
-    return {above - 1, above, (v - c[above - 1]) / (c[above] - c[above - 1])};
-}
-
 // One slice of a per-cell field, readable at cell centres and, interpolated, anywhere in the section.
 class SliceField {
 public:
@@ -66,24 +54,14 @@ public:
     double value(std::uint32_t s) const { return field_[cells_.index(slice_, s)]; }
 
     // Bilinear between the four surrounding centres, over the solid ones only with their weights
-    // renormalised (so beside a void the value is linear along the solid edge, constant by a lone solid
-    // corner); the nearest solid corner where those weights vanish; nothing if no corner is solid.
+    // renormalised (mesh/interpolation.hpp: beside a void the value is linear along the solid edge,
+    // constant by a lone solid corner); nothing if no corner is solid.
     std::optional<double> sample(double y, double z) const {
-        const Bracket by = bracket(yc_, y), bz = bracket(zc_, z);
-        const std::array<std::size_t, 4> js{by.lo, by.hi, by.lo, by.hi}, ks{bz.lo, bz.lo, bz.hi, bz.hi};
-        const std::array<double, 4> w{(1 - by.t) * (1 - bz.t), by.t * (1 - bz.t), (1 - by.t) * bz.t, by.t * bz.t};
-        double sum = 0, weight = 0, nearest = std::numeric_limits<double>::infinity();
-        std::optional<double> nearest_value;
-        for (int c = 0; c < 4; ++c) {
-            const std::uint32_t s = at(js[c], ks[c]);
-            if (s == none) continue;
-            sum += w[c] * value(s);
-            weight += w[c];
-            const double d = std::hypot(yc_[js[c]] - y, zc_[ks[c]] - z);
-            if (d < nearest) nearest = d, nearest_value = value(s);
-        }
-        if (weight > 0) return sum / weight;
-        return nearest_value;
+        return read(y, z, [](const mesh::Corner&) { return true; });
+    }
+    // The same over the cells of one material only: a surface between two metals read from one side.
+    std::optional<double> sample_in(double y, double z, mesh::Tag tag) const {
+        return read(y, z, [&](const mesh::Corner& c) { return cells_.tag[c.s] == tag; });
     }
 
     // The solid cell holding (y, z) (a point on a face belongs to the cell above it), if any.
@@ -97,6 +75,12 @@ public:
     }
 
 private:
+    template <typename Usable>
+    std::optional<double> read(double y, double z, Usable usable) const {
+        return mesh::interpolate(mesh::section_corners(grid_, cells_, y, z), usable,
+                                 [&](const mesh::Corner& c) { return value(c.s); });
+    }
+
     const mesh::Grid& grid_;
     const mesh::SolidCells& cells_;
     std::span<const double> field_;
@@ -293,20 +277,15 @@ Deepest web_penetration(const SliceField& f, const std::vector<bool>& zone, cons
     return best;
 }
 
-// The first stretch of a straight line, from `origin` along the unit `dir` for up to `length`, where the
-// section is solid (mesh::material_at) and the interpolated field is >= level; distances from origin.
+// The first stretch of a straight line, from `origin` along the unit `dir` for up to `length`, where
+// `fused(y, z)` holds; distances from origin.
 struct Stretch {
     double begin, end;
 };
 
-std::optional<Stretch> first_stretch(const SliceField& f, const mesh::JointGeometry& joint, Point origin, Point dir,
-                                     double length, double level) {
-    auto inside = [&](double s) {
-        const double y = origin[0] + s * dir[0], z = origin[1] + s * dir[1];
-        if (mesh::material_at(joint, y, z) == mesh::Tag::empty) return false;
-        const std::optional<double> v = f.sample(y, z);
-        return v && *v >= level;
-    };
+template <typename Fused>
+std::optional<Stretch> first_stretch(const SliceField& f, Point origin, Point dir, double length, Fused fused) {
+    auto inside = [&](double s) { return fused(origin[0] + s * dir[0], origin[1] + s * dir[1]); };
     // Refine the change of `inside` between a and b (inside(a) != inside(b)) by bisection.
     auto edge = [&](double a, double b) {
         const bool at_a = inside(a);
@@ -326,6 +305,43 @@ std::optional<Stretch> first_stretch(const SliceField& f, const mesh::JointGeome
         if (s >= length) return begin ? std::optional<Stretch>{{*begin, length}} : std::nullopt;
         previous = s;
     }
+}
+
+// Metal of the section (mesh::material_at) whose interpolated peak reached `level`.
+auto reached(const SliceField& f, const mesh::JointGeometry& joint, double level) {
+    return [&f, &joint, level](double y, double z) {
+        if (mesh::material_at(joint, y, z) == mesh::Tag::empty) return false;
+        const std::optional<double> v = f.sample(y, z);
+        return v && *v >= level;
+    };
+}
+
+// A point of a plate's surface is fused where the plate itself melted there (read from the plate's own
+// cells) or where the bead metal lying on it did (read from the bead's cells, within the bead's true
+// outline, mesh::inside_bead): either way fused metal meets the plate there. Reading each side from its
+// own cells keeps the hot bead from counting as melted plate, and the staircase of bead cells from
+// cutting the leg short by half a cell.
+auto fused_surface(const SliceField& f, const mesh::JointGeometry& joint, mesh::Tag plate, double level) {
+    return [&f, &joint, plate, level](double y, double z) {
+        const auto at = [&](mesh::Tag tag) {
+            const std::optional<double> v = f.sample_in(y, z, tag);
+            return v && *v >= level;
+        };
+        return (mesh::material_at(joint, y, z) == plate && at(plate)) ||
+               (mesh::inside_bead(joint, y, z) && at(mesh::Tag::weld));
+    };
+}
+
+// The line from `surface` along `inward` into a plate, up to `length`: fused when the peak there reached
+// the solidus, then the distance to where it falls through it.
+NormalLine normal_line(const SliceField& f, const mesh::JointGeometry& joint, Point surface, Point inward,
+                       double length, double solidus) {
+    NormalLine line;
+    line.surface = surface, line.inward = inward;
+    const auto stretch = first_stretch(f, surface, inward, length, reached(f, joint, solidus));
+    line.fused = stretch && stretch->begin == 0;
+    line.fusion_depth = line.fused ? stretch->end : 0.0;
+    return line;
 }
 
 double design_throat(const mesh::JointGeometry& joint) {
@@ -353,44 +369,54 @@ struct Areas {
     double deposited = 0, melted_base = 0;
 };
 
-// Area of the zone above the solidus: whole cells inside it, sampled fractions at its boundary.
-Areas fused_areas(const SliceField& f, const std::vector<bool>& zone, const Frame& frame, double solidus) {
+// Area of the zone above the solidus, within the joint's true outline: zone cells whose eight neighbours
+// are in the zone count whole; every other cell position next to the zone (fused or not, solid or void:
+// the bead's true face need not follow the cells) counts the share of its 8×8 sample points that lie in
+// metal (mesh::material_at) with an interpolated peak at or above the solidus, each point booked to the
+// metal it lies in. Points of the bead are read from the bead's own cells where any is near (the molten
+// bead is weld metal up to the plate, which the plate's cooler cells must not pull below the solidus);
+// points of the plates from all cells around them, as the finite volumes see the bead–plate face. So the
+// deposited area is that of the bead itself, not of its staircase of cells.
+Areas fused_areas(const SliceField& f, const mesh::JointGeometry& joint, const std::vector<bool>& zone,
+                  const Frame& frame, double solidus) {
     constexpr int samples = 8;
     const mesh::SolidCells& cells = f.cells();
     const mesh::Grid& grid = f.grid();
-    std::vector<bool> seen(cells.ns, false);
+    const auto ny = static_cast<std::ptrdiff_t>(f.ny()), nz = static_cast<std::ptrdiff_t>(f.nz());
+    const auto in_zone = [&](std::ptrdiff_t j, std::ptrdiff_t k) {
+        if (j < 0 || k < 0 || j >= ny || k >= nz) return false;
+        const std::uint32_t s = f.at(static_cast<std::size_t>(j), static_cast<std::size_t>(k));
+        return s != none && zone[s];
+    };
+    std::vector<bool> seen(f.ny() * f.nz(), false);
     Areas areas;
-    auto fraction = [&](std::uint32_t s) {
-        const std::size_t j = cells.j[s], k = cells.k[s];
-        bool interior = zone[s];
+    auto add = [&](std::size_t j, std::size_t k) {
+        if (seen[j + f.ny() * k]) return;
+        seen[j + f.ny() * k] = true;
+        const std::uint32_t s = f.at(j, k);
+        // Fused cells outside the zone belong to the other side or to a separate spot: not this bead's.
+        if (s != none && !zone[s] && f.value(s) >= solidus) return;
+        const double cell = grid.y.width(j) * grid.z.width(k);
+        bool interior = s != none && zone[s];
         for (int dk = -1; dk <= 1 && interior; ++dk)
-            for (int dj = -1; dj <= 1 && interior; ++dj) {
-                const auto jj = static_cast<std::ptrdiff_t>(j) + dj, kk = static_cast<std::ptrdiff_t>(k) + dk;
-                if (jj < 0 || kk < 0 || jj >= std::ssize(f.yc()) || kk >= std::ssize(f.zc())) {
-                    interior = false;
-                    break;
-                }
-                const std::uint32_t n = f.at(static_cast<std::size_t>(jj), static_cast<std::size_t>(kk));
-                interior = n != none && zone[n];
-            }
-        if (interior) return 1.0;
-        int above = 0;
+            for (int dj = -1; dj <= 1 && interior; ++dj)
+                interior = in_zone(static_cast<std::ptrdiff_t>(j) + dj, static_cast<std::ptrdiff_t>(k) + dk);
+        if (interior) {
+            (cells.tag[s] == mesh::Tag::weld ? areas.deposited : areas.melted_base) += cell;
+            return;
+        }
         for (int a = 0; a < samples; ++a)
             for (int b = 0; b < samples; ++b) {
                 const double y = grid.y.faces[j] + (a + 0.5) / samples * grid.y.width(j);
                 const double z = grid.z.faces[k] + (b + 0.5) / samples * grid.z.width(k);
-                const std::optional<double> v = f.sample(y, z);  // the cell's own centre is a corner: always set
-                above += v && *v >= solidus;
+                const mesh::Tag metal = mesh::material_at(joint, y, z);
+                if (metal == mesh::Tag::empty || !frame.in_half(y)) continue;
+                const bool bead = metal == mesh::Tag::weld;
+                std::optional<double> v = bead ? f.sample_in(y, z, mesh::Tag::weld) : std::nullopt;
+                if (!v) v = f.sample(y, z);
+                if (!v || *v < solidus) continue;
+                (bead ? areas.deposited : areas.melted_base) += cell / (samples * samples);
             }
-        return static_cast<double>(above) / (samples * samples);
-    };
-    auto add = [&](std::uint32_t s) {
-        if (s == none || seen[s]) return;
-        seen[s] = true;
-        // Fused cells outside the zone belong to the other side or to a separate spot: not this bead's.
-        if (!zone[s] && (f.value(s) >= solidus || !frame.in_half(f.yc()[cells.j[s]]))) return;
-        const double area = fraction(s) * grid.y.width(cells.j[s]) * grid.z.width(cells.k[s]);
-        (cells.tag[s] == mesh::Tag::weld ? areas.deposited : areas.melted_base) += area;
     };
     for (std::uint32_t s = 0; s < cells.ns; ++s) {
         if (!zone[s]) continue;
@@ -398,8 +424,8 @@ Areas fused_areas(const SliceField& f, const std::vector<bool>& zone, const Fram
             for (int dj = -1; dj <= 1; ++dj) {
                 const auto jj = static_cast<std::ptrdiff_t>(cells.j[s]) + dj;
                 const auto kk = static_cast<std::ptrdiff_t>(cells.k[s]) + dk;
-                if (jj < 0 || kk < 0 || jj >= std::ssize(f.yc()) || kk >= std::ssize(f.zc())) continue;
-                add(f.at(static_cast<std::size_t>(jj), static_cast<std::size_t>(kk)));
+                if (jj < 0 || kk < 0 || jj >= ny || kk >= nz) continue;
+                add(static_cast<std::size_t>(jj), static_cast<std::size_t>(kk));
             }
     }
     return areas;
@@ -431,6 +457,18 @@ CrossSection measure_cross_section(const mesh::JointGeometry& joint, const mesh:
     cs.ac1_line = slice_isolines(f, levels.ac1);
     cs.ac3_line = slice_isolines(f, levels.ac3);
     cs.design_throat = design_throat(joint);
+    // The probe lines: under the flange leg's middle and its toe, straight down; across the web at the
+    // middle of the web leg (above the root gap) and at its toe, straight in.
+    const double into_web = joint.sides == 2 ? joint.web_thickness / 2 : joint.web_thickness;
+    const double web_middle = joint.root_gap + (joint.leg_web - joint.root_gap) / 2;
+    const auto flange_line = [&](double a) {
+        return normal_line(f, joint, {frame.yw + side * a, 0.0}, {0.0, -1.0}, joint.flange_thickness, levels.solidus);
+    };
+    const auto web_line = [&](double z) {
+        return normal_line(f, joint, {frame.yw, z}, {-double(side), 0.0}, into_web, levels.solidus);
+    };
+    cs.flange_mid = flange_line(joint.leg_flange / 2), cs.flange_toe = flange_line(joint.leg_flange);
+    cs.web_mid = web_line(web_middle), cs.web_toe = web_line(joint.leg_web);
 
     const std::vector<bool> zone = fusion_zone(f, frame, levels.solidus);
     if (std::find(zone.begin(), zone.end(), true) == zone.end()) {
@@ -455,41 +493,30 @@ CrossSection measure_cross_section(const mesh::JointGeometry& joint, const mesh:
     cs.lack_of_fusion_web = cs.penetration_web <= 0;
 
     const Point root{frame.yw, 0.0};
-    // A leg is where the fused metal meets the plate surface, as a gauge reads it. Walk along the
-    // surface itself (which finds plate melted past the toe) and along the centres of the first
-    // row (column) of cells on the bead's side (which finds the bead, where the unmelted plate
-    // just below would pull the interpolated surface value down); the longer reach counts.
-    const auto first_beyond = [](const mesh::Axis& axis, double face, int dir) {
-        const auto& fa = axis.faces;
-        const auto it = std::lower_bound(fa.begin(), fa.end(), face - 1e-12);
-        const std::size_t at = static_cast<std::size_t>(it - fa.begin());
-        return dir > 0 ? axis.centre(std::min(at, axis.cells() - 1)) : axis.centre(at > 0 ? at - 1 : 0);
-    };
-    const double row_above = first_beyond(grid.z, 0.0, 1);
-    const double column_beside = first_beyond(grid.y, frame.yw, side);
-    const auto reach = [&](Point start, Point direction, double length) {
-        const auto stretch = first_stretch(f, joint, start, direction, length, levels.solidus);
+    // A leg is where the fused metal meets the plate surface, as a gauge reads it: along the surface
+    // from the root corner, fused where the plate melted or the bead on it did (fused_surface).
+    const auto reach = [&](Point direction, double length, mesh::Tag plate) {
+        const auto stretch = first_stretch(f, root, direction, length, fused_surface(f, joint, plate, levels.solidus));
         return stretch ? stretch->end : 0.0;
     };
     const double flange_room = joint.flange_width / 2 - side * frame.yw, web_room = joint.root_gap + joint.web_height;
-    cs.fused_leg_flange = std::max(reach(root, {double(side), 0.0}, flange_room),
-                                   reach({frame.yw, row_above}, {double(side), 0.0}, flange_room));
-    cs.fused_leg_web = std::max(reach(root, {0.0, 1.0}, web_room), reach({column_beside, 0.0}, {0.0, 1.0}, web_room));
+    cs.fused_leg_flange = reach({double(side), 0.0}, flange_room, mesh::Tag::flange);
+    cs.fused_leg_web = reach({0.0, 1.0}, web_room, mesh::Tag::web);
 
     // Bisector: back from the root into the plates (under the web edge, into the flange) for the
     // penetration beyond the root; if the root did not fuse, forward to the first fused point instead.
     const double r = 1 / std::sqrt(2.0);
     const double to_face = face_along_bisector(joint, frame);
-    const auto back = first_stretch(f, joint, root, {-side * r, -r}, std::sqrt(2.0) * joint.flange_thickness,
-                                    levels.solidus);
+    const auto back = first_stretch(f, root, {-side * r, -r}, std::sqrt(2.0) * joint.flange_thickness,
+                                    reached(f, joint, levels.solidus));
     if (back && back->begin == 0) {
         cs.actual_throat = to_face + back->end;
     } else {
-        const auto forward = first_stretch(f, joint, root, {side * r, r}, to_face, levels.solidus);
+        const auto forward = first_stretch(f, root, {side * r, r}, to_face, reached(f, joint, levels.solidus));
         cs.actual_throat = forward ? to_face - forward->begin : 0.0;
     }
 
-    const Areas areas = fused_areas(f, zone, frame, levels.solidus);
+    const Areas areas = fused_areas(f, joint, zone, frame, levels.solidus);
     cs.deposited_area = areas.deposited;
     cs.melted_base_area = areas.melted_base;
     cs.fused_area = areas.deposited + areas.melted_base;

@@ -56,8 +56,11 @@ struct SectionLevels {
 //   0 when no fusion-zone cell lies in a web row at all (the zone stays below the web edge).
 // fused_leg_flange / fused_leg_web: from the root corner along the flange top (z = 0, outward) and along
 //   the web face (y = y_w, upward), the distance to the far end of the first fused stretch met — the
-//   fused leg of the macro, which runs past the bead's toe when the plate melted beyond it. 0 if no point
-//   of that surface fused. (With a root gap the web line starts up the bead's side of the gap slot.)
+//   fused leg of the macro, which runs past the bead's toe when the plate melted beyond it. A point of
+//   the surface is fused where the plate's own cells read at or above the solidus there, or where it lies
+//   under the bead's true outline (mesh::inside_bead) and the bead's cells do: so a fused bead's leg is
+//   its true leg, not its staircase of cells. 0 if no point of that surface fused. (With a root gap the
+//   web line starts up the bead's side of the gap slot.)
 // design_throat: root corner to the face, perpendicular to the chord between the toes, l_f·l_w/|d|
 //   (|d| = chord length); a convex face's reinforcement does not count, a concave face's dip does
 //   (common practice, no source).
@@ -65,11 +68,13 @@ struct SectionLevels {
 //   deepest point of the fusion zone on it to the bead face: design-style throat plus the penetration
 //   beyond the root along the bisector. If the root did not fuse, from the first fused point on the
 //   bisector to the face (smaller than the geometric root-to-face distance); 0 if nothing on it fused.
-// fused_area: area of the fusion zone; deposited_area: its part in bead (weld) cells, i.e. the weld metal
-//   that fused; melted_base_area: its part in flange and web cells; dilution = melted base / fused.
-//   Cells are summed by the fraction of their area above the solidus: a fused cell whose eight neighbours
-//   are fused counts whole, cells at the boundary (fused or not) are split by 8×8 point samples of the
-//   interpolated field.
+// fused_area: area of the fusion zone within the joint's true outline (mesh::material_at);
+//   deposited_area: its part in the bead, i.e. the weld metal that fused; melted_base_area: its part in
+//   the flange and web; dilution = melted base / fused. A fused cell whose eight neighbours are fused
+//   counts whole; every other cell position next to the zone (solid or void, as the bead's face cuts
+//   through cells) counts the share of its 8×8 sample points that lie in metal with an interpolated peak
+//   at or above the solidus, each booked to the metal it lies in. Bead points are read from the bead's
+//   own cells (the bead is weld metal right up to the plate), plate points from all cells around them.
 // root_fused: the fusion zone holds both the point root_margin below the root corner (y_w, −m), into the
 //   flange, and the point root_margin inside the web face on the web edge (y_w − side·m, g), into the web.
 // lack_of_fusion_flange / _web: the penetration into that plate is ≤ 0.
@@ -77,9 +82,23 @@ struct SectionLevels {
 //   where the peak falls through Ac1, along the same line (normal to the plate).
 // fusion_line, ac1_line, ac3_line: isolines of the peak at solidus, Ac1 and Ac3 over the whole slice
 //   (both beads on a two-sided joint).
+// flange_mid, flange_toe, web_mid, web_toe: lines normal to a plate from its surface under the bead —
+//   straight down from the flange top at l_f/2 and at l_f from the root, straight into the web from its
+//   face at the middle of the web leg above the root gap, g + (l_w − g)/2, and at l_w — and where the
+//   fusion line crosses each: fused when the interpolated peak at the surface point reached the solidus
+//   (there the bead's and the plate's cells are read together, as the finite volumes see their common
+//   face), then the depth to where it falls through it. They are the same lines on every grid, so what
+//   is measured on them converges as the grid is refined; the station's probes lie on them.
 //
 // With no fused bead cell at the slice (the weld has not reached it) the fusion zone is empty: lengths
 // and areas are 0 and both lack-of-fusion flags are set.
+struct NormalLine {
+    std::array<double, 2> surface{};  // (y, z) of the surface point, m
+    std::array<double, 2> inward{};   // unit direction into the plate
+    bool fused = false;               // the peak at the surface point reached the solidus
+    double fusion_depth = 0;          // m from the surface along the line to the fusion line; 0 when not fused
+};
+
 struct CrossSection {
     double station = 0;
     std::size_t slice = 0;
@@ -92,6 +111,7 @@ struct CrossSection {
     bool lack_of_fusion_flange = false, lack_of_fusion_web = false;
     double haz_width_flange = 0, haz_width_web = 0;
     std::vector<Polyline> fusion_line, ac1_line, ac3_line;
+    NormalLine flange_mid, flange_toe, web_mid, web_toe;
 };
 
 // The cross-section at the slice containing x = station (a station on a face between slices belongs to

@@ -1,7 +1,9 @@
 #include "post/section_history.hpp"
 
+#include "mesh/interpolation.hpp"
+#include "post/text.hpp"
+
 #include <algorithm>
-#include <array>
 #include <cmath>
 #include <limits>
 
@@ -9,14 +11,6 @@ namespace heatbead::post {
 
 namespace {
 constexpr double nan = std::numeric_limits<double>::quiet_NaN();
-
-// Index of the cell of `axis` containing v, or npos.
-std::size_t cell_of(const mesh::Axis& axis, double v) {
-    const auto& f = axis.faces;
-    if (!(v >= f.front() && v <= f.back())) return static_cast<std::size_t>(-1);
-    const auto it = std::upper_bound(f.begin(), f.end(), v);
-    return std::min(static_cast<std::size_t>(it - f.begin()) - 1, axis.cells() - 1);
-}
 
 // Last time the cycle fell through `level`, interpolated; NaN if it never did.
 double last_down_crossing(std::span<const double> t, std::span<const double> T, double level) {
@@ -28,7 +22,20 @@ double last_down_crossing(std::span<const double> t, std::span<const double> T, 
 }  // namespace
 
 SectionHistory::SectionHistory(const mesh::SolidCells& cells, std::size_t slice, double initial_temperature)
-    : cells_(cells), slice_(slice), times_{0.0}, values_(cells.ns, static_cast<float>(initial_temperature)) {}
+    : cells_(cells),
+      slice_(slice),
+      initial_(initial_temperature),
+      laid_(cells.ns, -std::numeric_limits<double>::infinity()),
+      times_{0.0},
+      values_(cells.ns, static_cast<float>(initial_temperature)) {
+    for (std::size_t s = 0; s < cells.ns; ++s) {
+        if (cells.tag[s] == mesh::Tag::weld) laid_[s] = std::numeric_limits<double>::infinity();
+    }
+}
+
+void SectionHistory::appear(std::size_t cell, double t) {
+    if (cell / cells_.ns == slice_) laid_[cell % cells_.ns] = t;
+}
 
 void SectionHistory::record(double t, std::span<const double> T) {
     times_.push_back(t);
@@ -37,32 +44,16 @@ void SectionHistory::record(double t, std::span<const double> T) {
 }
 
 std::vector<double> SectionHistory::cycle_at(const mesh::Grid& grid, double y, double z) const {
-    const std::size_t ny = grid.y.cells(), ns = cells_.ns;
-    const std::size_t j = cell_of(grid.y, y), k = cell_of(grid.z, z);
-    if (j >= ny || k >= grid.z.cells() || cells_.at(j, k, ny) == mesh::no_neighbour) return {};
-    // The lower-left centre of the interpolation square, and the weights.
-    const std::size_t j0 = y >= grid.y.centre(j) ? j : (j > 0 ? j - 1 : j);
-    const std::size_t k0 = z >= grid.z.centre(k) ? k : (k > 0 ? k - 1 : k);
-    std::array<std::uint32_t, 4> corner{};
-    bool bilinear = j0 + 1 < ny && k0 + 1 < grid.z.cells();
-    if (bilinear) {
-        corner = {cells_.at(j0, k0, ny), cells_.at(j0 + 1, k0, ny), cells_.at(j0, k0 + 1, ny), cells_.at(j0 + 1, k0 + 1, ny)};
-        bilinear = std::none_of(corner.begin(), corner.end(), [](std::uint32_t c) { return c == mesh::no_neighbour; });
+    const auto corners = mesh::section_corners(grid, cells_, y, z);
+    if (std::all_of(corners.begin(), corners.end(), [](const mesh::Corner& c) { return c.s == mesh::no_neighbour; })) {
+        return {};
     }
-    const std::size_t steps = times_.size();
+    const std::size_t steps = times_.size(), ns = cells_.ns;
     std::vector<double> out(steps);
-    if (!bilinear) {
-        const std::uint32_t s = cells_.at(j, k, ny);
-        for (std::size_t n = 0; n < steps; ++n) out[n] = values_[n * ns + s];
-        return out;
-    }
-    const double u = std::clamp((y - grid.y.centre(j0)) / (grid.y.centre(j0 + 1) - grid.y.centre(j0)), 0.0, 1.0);
-    const double w = std::clamp((z - grid.z.centre(k0)) / (grid.z.centre(k0 + 1) - grid.z.centre(k0)), 0.0, 1.0);
-    const std::array<double, 4> weight{(1 - u) * (1 - w), u * (1 - w), (1 - u) * w, u * w};
     for (std::size_t n = 0; n < steps; ++n) {
-        double v = 0;
-        for (int c = 0; c < 4; ++c) v += weight[c] * values_[n * ns + corner[c]];
-        out[n] = v;
+        const auto laid = [&](const mesh::Corner& c) { return laid_[c.s] <= times_[n]; };
+        const auto value = [&](const mesh::Corner& c) { return static_cast<double>(values_[n * ns + c.s]); };
+        out[n] = mesh::interpolate(corners, laid, value).value_or(initial_);
     }
     return out;
 }
@@ -98,6 +89,19 @@ CycleFigures cycle_figures(std::span<const double> time, std::span<const double>
         else if (a >= 0 || b >= 0) above += dt * std::max(a, b) / std::abs(a - b);
     }
     f.time_above_ac1 = above;
+    // A figure read as the cycle falls from `upper` through `lower` is missing when the peak stayed
+    // below `upper`, or when the cycle had not fallen through `lower` when the run ended.
+    const auto why = [&](double value, double upper, double lower) -> std::string {
+        if (!std::isnan(value)) return "";
+        if (f.peak < upper) return format_text("peak %.0f degC stays below %.0f degC", f.peak, upper);
+        return format_text("did not cool below %.0f degC by the end of the run at %.1f s (still %.0f degC)", lower,
+                           time.back(), T.back());
+    };
+    f.no_t8_5 = why(f.t8_5, 800, 500);
+    f.no_t8_3 = why(f.t8_3, 800, 300);
+    f.no_rate_540 = why(f.rate_540, 540, 540);
+    f.no_rate_700 = why(f.rate_700, 700, 700);
+    f.no_time_to_100 = why(f.time_to_100, 100, 100);
     return f;
 }
 

@@ -9,10 +9,28 @@
 
 namespace heatbead::post {
 
+bool SummaryItem::missing() const { return text.empty() && !(value && std::isfinite(*value)); }
+
+std::string missing_text(const std::vector<MissingOutput>& missing) {
+    std::string out;
+    for (std::size_t n = 0; n < missing.size(); ++n) {
+        const bool same_as_before = n > 0 && missing[n].reason == missing[n - 1].reason;
+        out += n == 0 ? "missing " : same_as_before ? ", " : "; ";
+        out += missing[n].key;
+        const bool last_of_reason = n + 1 == missing.size() || missing[n + 1].reason != missing[n].reason;
+        if (last_of_reason) out += " (" + (missing[n].reason.empty() ? std::string("no reason given") : missing[n].reason) + ")";
+    }
+    return out;
+}
+
 namespace {
-std::string shown(const SummaryItem& i) {
+// The item as the screen shows it; `reason_shown` is the reason already given on this line.
+std::string shown(const SummaryItem& i, const std::string& reason_shown) {
     if (!i.text.empty()) return i.text;
-    if (!i.value || std::isnan(*i.value)) return "n/a";
+    if (i.missing()) {
+        if (i.reason.empty()) return "none";
+        return i.reason == reason_shown ? "none" : "none (" + i.reason + ")";
+    }
     const std::string value = format_text("%.*f", i.decimals, *i.value);
     return i.unit.empty() ? value : value + " " + i.unit;
 }
@@ -25,6 +43,14 @@ std::string csv_field(const std::string& s) {
 }
 }  // namespace
 
+std::vector<MissingOutput> Summary::missing() const {
+    std::vector<MissingOutput> out;
+    for (const auto& i : items_) {
+        if (i.missing()) out.push_back({i.key, i.reason});
+    }
+    return out;
+}
+
 std::string Summary::to_text() const {
     std::vector<std::string> groups;
     for (const auto& i : items_) {
@@ -32,10 +58,11 @@ std::string Summary::to_text() const {
     }
     std::string out;
     for (const auto& g : groups) {
-        std::string line;
+        std::string line, reason_shown;
         for (const auto& i : items_) {
             if (i.group != g) continue;
-            line += (line.empty() ? "" : ", ") + i.label + " " + shown(i);
+            line += (line.empty() ? "" : ", ") + i.label + " " + shown(i, reason_shown);
+            if (i.missing()) reason_shown = i.reason;
         }
         out += format_text("%-12s", g.c_str()) + line + "\n";
     }
@@ -50,10 +77,11 @@ std::string Summary::to_json() const {
     for (const auto& i : items_) {
         nlohmann::json v;
         if (!i.text.empty()) v["value"] = i.text;
-        else if (i.value && !std::isnan(*i.value)) v["value"] = *i.value;
+        else if (!i.missing()) v["value"] = *i.value;
         else v["value"] = nullptr;
         v["unit"] = i.unit;
         v["label"] = i.label;
+        if (i.missing()) v["reason"] = i.reason;
         j[i.key] = v;
     }
     nlohmann::json notes = nlohmann::json::array();
@@ -63,10 +91,11 @@ std::string Summary::to_json() const {
 }
 
 std::string Summary::to_csv() const {
-    std::string out = "key,value,unit,label\n";
+    std::string out = "key,value,unit,label,reason\n";
     for (const auto& i : items_) {
-        std::string v = !i.text.empty() ? i.text : (i.value && !std::isnan(*i.value) ? nlohmann::json(*i.value).dump() : "");
-        out += csv_field(i.key) + "," + csv_field(v) + "," + csv_field(i.unit) + "," + csv_field(i.label) + "\n";
+        std::string v = !i.text.empty() ? i.text : (!i.missing() ? nlohmann::json(*i.value).dump() : "");
+        out += csv_field(i.key) + "," + csv_field(v) + "," + csv_field(i.unit) + "," + csv_field(i.label) + "," +
+               csv_field(i.missing() ? i.reason : "") + "\n";
     }
     return out;
 }

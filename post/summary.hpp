@@ -14,11 +14,22 @@ struct SummaryItem {
     std::string group;   // screen line it belongs to, e.g. "Fusion"
     std::string key;     // machine name, e.g. "penetration_flange"
     std::string label;   // words on screen, e.g. "flange penetration"
-    std::optional<double> value;  // empty: not available (shown as "n/a")
+    std::optional<double> value;  // empty (or NaN): no value
     std::string unit;    // as printed, e.g. "mm"; empty for counts and flags
     int decimals = 2;
     std::string text;    // for yes/no and words; used instead of value when not empty
+    std::string reason = "";  // why there is no value, e.g. "no HAZ probe reached 800 degC": shown in its place
+    bool missing() const;  // neither a text nor a finite value
 };
+
+// An item without a value: its key and why.
+struct MissingOutput {
+    std::string key, reason;
+};
+
+// "missing t8_5_min, t8_5_max (no HAZ probe reached 800 degC); haz_hardness_max (...)": what a row
+// of a table lacks and why, keys with the same reason named together; empty when nothing is missing.
+std::string missing_text(const std::vector<MissingOutput>& missing);
 
 class Summary {
 public:
@@ -27,10 +38,13 @@ public:
     const std::vector<SummaryItem>& items() const { return items_; }
     // (group, note) pairs, in the order added.
     const std::vector<std::pair<std::string, std::string>>& notes() const { return notes_; }
-    // One line per group: "Group      label value unit, label value unit, ..." then the notes.
+    // The items without a value, in order.
+    std::vector<MissingOutput> missing() const;
+    // One line per group: "Group      label value unit, label value unit, ..." then the notes. An item
+    // without a value shows "none (reason)"; the same reason again on the line shows "none".
     std::string to_text() const;
-    std::string to_json() const;
-    std::string to_csv() const;  // key,value,unit,label
+    std::string to_json() const;  // {key: {value, unit, label[, reason]}, notes: [...]}; value null when missing
+    std::string to_csv() const;   // key,value,unit,label,reason
 
 private:
     std::vector<SummaryItem> items_;

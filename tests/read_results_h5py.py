@@ -21,7 +21,7 @@ with h5py.File(sys.argv[1], "r") as f:
     assert np.all(np.isnan(values[void, :])), "void cells must be NaN"
     assert np.nanmax(values) > 1495, "the weld must have melted"
     assert "t8_5" in f["fields"], list(f["fields"])
-    for name in ("fusion_flange", "root"):
+    for name in ("haz_flange_mid_0.5mm", "root"):
         probe = f["probes"][name]
         assert probe["time"].shape == probe["temperature"].shape
     case = f["case"][()]

@@ -184,14 +184,11 @@ TEST_CASE("plate melted past the toes: the fused legs run beyond the bead legs",
     CHECK(cs.penetration_flange == Approx(r_s).margin(0.05 * h));
     CHECK(cs.penetration_web == Approx(r_s).margin(0.05 * h));
     // The whole bead (farthest point: a toe, 6.1 mm < r_s) and a half disc of flange plus a quarter disc
-    // of web. Every bead cell fused, so the deposited area is the meshed bead exactly; that staircase is
-    // l²/2 to first order in h (tested in test_mesh; here 1.7 % small as the fine cells do not end on the legs).
-    double bead = 0;
-    for (std::size_t c = 0; c < s.cells.ns; ++c)
-        if (s.cells.tag[c] == mesh::Tag::weld) bead += s.grid.y.width(s.cells.j[c]) * s.grid.z.width(s.cells.k[c]);
-    CHECK(bead == Approx(leg * leg / 2).epsilon(0.02));
-    const double base = 0.75 * pi * r_s * r_s;
-    CHECK(cs.deposited_area == Approx(bead).epsilon(1e-9));
+    // of web. The whole bead fused, so the deposited area is the bead's own, the triangle l²/2 (plane
+    // geometry), measured on its true outline: not its staircase of cells, which is l²/2 only to first
+    // order in h (tested in test_mesh; here 1.7 % small as the fine cells do not end on the legs).
+    const double bead = leg * leg / 2, base = 0.75 * pi * r_s * r_s;
+    CHECK(cs.deposited_area == Approx(bead).epsilon(0.002));
     CHECK(cs.melted_base_area == Approx(base).epsilon(0.005));
     CHECK(cs.dilution == Approx(base / (base + bead)).margin(0.005));
 }

@@ -37,6 +37,19 @@ constexpr double nan = std::numeric_limits<double>::quiet_NaN();
 // A figure, or "n/a" where the runs gave none (NaN).
 std::string or_na(const char* format, double v) { return std::isfinite(v) ? format_text(format, v) : "n/a"; }
 
+// The summary item `key`, if the run has one.
+const post::SummaryItem* item(const post::Summary& s, const std::string& key) {
+    for (const auto& i : s.items())
+        if (i.key == key) return &i;
+    return nullptr;
+}
+
+// A summary figure (NaN where the run has none).
+double summary_value(const post::Summary& s, const std::string& key) {
+    const post::SummaryItem* i = item(s, key);
+    return i && !i->missing() && i->value ? *i->value : std::numeric_limits<double>::quiet_NaN();
+}
+
 // One case's run and what it means.
 struct Outcome {
     std::string name;
@@ -69,25 +82,35 @@ Figures figures_of(const Outcome& o) {
     f.fused = x.fused_area * 1e6, f.dilution = x.dilution * 100;
     f.haz_flange = x.haz_width_flange * 1e3, f.haz_web = x.haz_width_web * 1e3;
     f.root_fused = x.root_fused;
-    f.t85_lo = f.t85_hi = f.rate_540 = f.peak_lo = f.peak_hi = nan;
-    for (const auto& p : o.analysis.probes) {
-        if (p.name.rfind("haz_", 0) != 0) continue;
-        const auto& g = p.figures;
-        const auto widen = [](double& lo, double& hi, double v) {
-            if (!std::isfinite(v)) return;
-            lo = std::isnan(lo) ? v : std::min(lo, v);
-            hi = std::isnan(hi) ? v : std::max(hi, v);
-        };
-        double ignored = nan;
-        widen(f.t85_lo, f.t85_hi, g.t8_5);
-        widen(ignored, f.rate_540, g.rate_540);
-        widen(f.peak_lo, f.peak_hi, g.peak);
-    }
+    // The cooling figures at the HAZ probes, as the run's summary gives them.
+    f.t85_lo = summary_value(o.summary, "t8_5_min"), f.t85_hi = summary_value(o.summary, "t8_5_max");
+    f.rate_540 = summary_value(o.summary, "cooling_rate_540");
+    f.peak_lo = summary_value(o.summary, "haz_peak_min"), f.peak_hi = summary_value(o.summary, "haz_peak_max");
     const ProbeResult* hardest = o.analysis.hardest();
     f.hardness = hardest ? hardest->hardness : nan;
     f.preheat = o.preheat && o.preheat->found ? *o.preheat->found : nan;
     f.standard = o.preheat ? o.preheat->standard.formula : nan;
     return f;
+}
+
+// A summary figure in `format`, or in its place why the run has none.
+std::string summary_cell(const Outcome& o, const char* key, const char* format) {
+    const post::SummaryItem* i = item(o.summary, key);
+    if (!i) return "not computed";
+    return i->missing() ? "none (" + i->reason + ")" : format_text(format, *i->value);
+}
+
+// Two summary figures as a range "lo-hi", or why the run has none.
+std::string summary_range(const Outcome& o, const char* lo, const char* hi, const char* lo_format, const char* hi_format) {
+    const post::SummaryItem *a = item(o.summary, lo), *b = item(o.summary, hi);
+    if (!a || !b || a->missing() || b->missing()) return summary_cell(o, a && !a->missing() ? hi : lo, "%g");
+    return format_text(lo_format, *a->value) + "-" + format_text(hi_format, *b->value);
+}
+
+// "complete", or what the run's summary lacks and why.
+std::string outputs_status(const Outcome& o) {
+    const auto missing = o.summary.missing();
+    return missing.empty() ? "complete" : post::missing_text(missing);
 }
 
 // The table: one row per quantity (its label, then one cell per case), as the report page takes it.
@@ -106,7 +129,10 @@ Rows table(const std::vector<Outcome>& outcomes) {
                ", " + or_na("%.0f A", p.current) + ", " + or_na("%.1f V", p.voltage) + ", " + or_na("%.1f mm/s", p.travel_speed * 1e3);
     });
     row("heat input", [](const Outcome&, const Figures& f) { return or_na("%.3f kJ/mm", f.heat_input); });
-    row("deposited area", [](const Outcome&, const Figures& f) { return or_na("%.1f mm2", f.deposited); });
+    row("deposited area", [](const Outcome&, const Figures& f) {
+        return std::isfinite(f.deposited) ? format_text("%.1f mm2", f.deposited)
+                                          : std::string("not computed (needs the wire feed and the wire diameter)");
+    });
     row("legs asked (flange x web)", [](const Outcome& o, const Figures&) {
         return or_na("%.1f", o.c->joint.leg_flange * 1e3) + " x " + or_na("%.1f mm", o.c->joint.leg_web * 1e3);
     });
@@ -117,10 +143,13 @@ Rows table(const std::vector<Outcome>& outcomes) {
     row("root fused", [](const Outcome&, const Figures& f) { return std::string(f.root_fused ? "yes" : "NO"); });
     row("fused area, dilution", [](const Outcome&, const Figures& f) { return or_na("%.1f mm2", f.fused) + ", " + or_na("%.0f %%", f.dilution); });
     row("HAZ width (flange, web)", [](const Outcome&, const Figures& f) { return or_na("%.2f", f.haz_flange) + ", " + or_na("%.2f mm", f.haz_web); });
-    row("t8/5 at the HAZ probes", [](const Outcome&, const Figures& f) { return or_na("%.2f", f.t85_lo) + "-" + or_na("%.2f s", f.t85_hi); });
-    row("fastest cooling at 540 degC", [](const Outcome&, const Figures& f) { return or_na("%.0f K/s", f.rate_540); });
-    row("peak at the HAZ probes", [](const Outcome&, const Figures& f) { return or_na("%.0f", f.peak_lo) + "-" + or_na("%.0f degC", f.peak_hi); });
-    row("HAZ hardness (max)", [](const Outcome&, const Figures& f) { return or_na("%.0f HV", f.hardness); });
+    row("t8/5 at the HAZ probes", [](const Outcome& o, const Figures&) { return summary_range(o, "t8_5_min", "t8_5_max", "%.2f", "%.2f s"); });
+    row("fastest cooling at 540 degC", [](const Outcome& o, const Figures&) { return summary_cell(o, "cooling_rate_540", "%.0f K/s"); });
+    row("peak at the HAZ probes", [](const Outcome& o, const Figures&) { return summary_range(o, "haz_peak_min", "haz_peak_max", "%.0f", "%.0f degC"); });
+    row("HAZ hardness (max)", [](const Outcome& o, const Figures&) {
+        return o.c->base.composition ? summary_cell(o, "haz_hardness_max", "%.0f HV")
+                                     : std::string("not estimated (no composition in the case)");
+    });
     row("lowest preheat (simulation)", [](const Outcome& o, const Figures& f) {
         if (!o.preheat) return std::string("not searched");
         return o.preheat->found ? or_na("%.0f degC", f.preheat) : "none up to " + or_na("%.0f degC", o.c->preheat_search.highest);
@@ -129,6 +158,7 @@ Rows table(const std::vector<Outcome>& outcomes) {
         return o.preheat ? or_na("%.0f degC", f.standard) : std::string("not computed");
     });
     row("run time", [](const Outcome& o, const Figures&) { return or_na("%.1f s", o.wall); });
+    row("outputs", [](const Outcome& o, const Figures&) { return outputs_status(o); });
     return rows;
 }
 
@@ -184,6 +214,7 @@ std::vector<std::string> warnings(const std::vector<Outcome>& outcomes) {
     for (const auto& o : outcomes) {
         for (const auto& w : o.c->warnings) out.push_back(o.name + ": " + w);
         for (const auto& [group, note] : o.summary.notes()) out.push_back(o.name + ": " + note);
+        if (!o.summary.missing().empty()) out.push_back(o.name + ": " + outputs_status(o));
         if (std::abs(o.result.energy.error()) > 0.01) out.push_back(o.name + ": energy balance off by more than 1 %");
     }
     return out;
@@ -244,6 +275,9 @@ nlohmann::json to_json(const std::vector<Outcome>& outcomes, const Rows& rows, c
     for (const auto& o : outcomes) {
         const Figures f = figures_of(o);
         const auto num = [](double v) { return std::isfinite(v) ? nlohmann::json(v) : nlohmann::json(nullptr); };
+        // Beside each figure left null, why the run has none.
+        nlohmann::json reasons = nlohmann::json::object();
+        for (const auto& m : o.summary.missing()) reasons[m.key] = m.reason;
         j["cases"].push_back({{"name", o.name},
                               {"case", o.c->file},
                               {"heat_input_kJ_per_mm", num(f.heat_input)},
@@ -267,7 +301,9 @@ nlohmann::json to_json(const std::vector<Outcome>& outcomes, const Rows& rows, c
                               {"lowest_preheat_degC", num(f.preheat)},
                               {"standard_preheat_degC", num(f.standard)},
                               {"energy_balance_error", o.result.energy.error()},
-                              {"run_time_s", o.wall}});
+                              {"run_time_s", o.wall},
+                              {"status", o.summary.missing().empty() ? "ok" : outputs_status(o)},
+                              {"reasons", reasons}});
     }
     j["table"] = nlohmann::json::array();
     for (const auto& [label, cells] : rows) j["table"].push_back({{"quantity", label}, {"values", cells}});
@@ -310,9 +346,9 @@ post::CompareReportInput report_input(const std::vector<Outcome>& outcomes, cons
         p.bead = bead_outline(o.c->joint);
         p.fusion_line = curves(o.analysis.section.fusion_line);
         p.haz_line = curves(o.analysis.section.ac1_line);
-        // The cycle 0.5 mm beyond the fusion line in the flange: the same place in every procedure.
+        // The cycle 0.5 mm beyond the fusion line (or the surface) under the flange leg's middle.
         for (const auto& probe : o.analysis.probes) {
-            if (probe.name.rfind("haz_flange_0.5", 0) == 0) p.cycle = {probe.name, probe.time, probe.temperature};
+            if (probe.name == "haz_flange_mid_0.5mm") p.cycle = {probe.name, probe.time, probe.temperature};
         }
         r.procedures.push_back(std::move(p));
     }

@@ -79,8 +79,20 @@ void Simulation::add_probe(std::string name, const std::array<double, 3>& p) {
     const bool inside = i < grid_.x.cells() && j < grid_.y.cells() && k < grid_.z.cells();
     const std::uint32_t s = inside ? cells_.at(j, k, grid_.y.cells()) : mesh::no_neighbour;
     if (s == mesh::no_neighbour) throw std::invalid_argument("probe " + name + " is not inside the solid");
-    probes_.push_back({std::move(name), p, cells_.index(i, s), {0.0}, {settings_.initial_temperature}});
+    probes_.push_back({std::move(name), p, mesh::grid_corners(grid_, cells_, p), {0.0}, {settings_.initial_temperature}});
 }
+
+namespace {
+// The probe's trilinear reading over its corners that hold metal now; the initial temperature while
+// none does (a probe in weld metal not yet laid).
+double probe_reading(const Probe& probe, const mesh::SolidCells& cells, std::span<const double> T,
+                     std::span<const std::uint8_t> active, double initial) {
+    const auto cell = [&](const mesh::Corner& c) { return cells.index(c.i, c.s); };
+    return mesh::interpolate(probe.corners, [&](const mesh::Corner& c) { return active[cell(c)] != 0; },
+                             [&](const mesh::Corner& c) { return T[cell(c)]; })
+        .value_or(initial);
+}
+}  // namespace
 
 void Simulation::birth(const Pass& pass, const TorchPath& path, double t) {
     // Weld metal exists where the arc has been: cells whose centre the ellipsoid origin has passed.
@@ -356,7 +368,7 @@ void Simulation::accept_step(StepState& state, const Trial& trial, RunResult& re
     for (StepObserver* o : observers_) o->step(state.t, T_old_, state.t + dt, T_, r.begin, r.end);
     for (auto& probe : probes_) {
         probe.time.push_back(state.t + dt);
-        probe.temperature.push_back(T_[probe.cell]);
+        probe.temperature.push_back(probe_reading(probe, cells_, T_, active_, settings_.initial_temperature));
     }
     result.energy.lost += trial.lost;
     for (const auto& q : source_) result.energy.deposited += q.watts * dt;

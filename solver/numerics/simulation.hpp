@@ -12,6 +12,7 @@
 #pragma once
 
 #include "mesh/grid.hpp"
+#include "mesh/interpolation.hpp"
 #include "mesh/solid_cells.hpp"
 #include "solver/numerics/conduction.hpp"
 #include "solver/physics/heat_source.hpp"
@@ -105,10 +106,14 @@ struct RunResult {
     std::vector<double> pass_start, pass_end;
 };
 
+// A point whose temperature is recorded after every accepted step: trilinear between the centres of the
+// eight cells around it (mesh/interpolation.hpp), over those that hold metal at the time (weld metal
+// counts once laid), so the reading converges with the grid instead of jumping with the cell that holds
+// the point.
 struct Probe {
     std::string name;
     std::array<double, 3> position;
-    std::size_t cell = 0;
+    std::array<mesh::Corner, 8> corners;
     std::vector<double> time, temperature;
 };
 
@@ -133,7 +138,8 @@ public:
     Simulation(const mesh::Grid& grid, const Material& material, SurfaceLosses losses, std::vector<Pass> passes,
                RunSettings settings);
 
-    // Adds a probe at a point inside the solid (the cell containing it). Throws if outside.
+    // Adds a probe at a point inside the solid (struct Probe says how it reads). Throws if the cell
+    // holding the point is void.
     void add_probe(std::string name, const std::array<double, 3>& position);
 
     // `observer` is told of every birth and accepted step; it must outlive run().

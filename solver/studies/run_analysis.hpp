@@ -16,16 +16,23 @@
 
 namespace heatbead {
 
+// What a probe stands for: the start of a probe line at the station (on the fusion line, or on the
+// plate's surface where the fusion line does not reach the plate), a HAZ probe beyond it on the line,
+// the root corner, or a point of the case's own.
+enum class ProbeKind { line_start, haz, root, user };
+
 struct ProbeResult {
     std::string name;
+    ProbeKind kind = ProbeKind::user;
     std::array<double, 3> position;  // m
     std::vector<double> time, temperature;
     post::CycleFigures figures;
-    // Highest HAZ hardness estimate (solver/weldability/haz_hardness.hpp) at fusion-line and HAZ probes that
+    // Highest HAZ hardness estimate (solver/weldability/haz_hardness.hpp) at line-start and HAZ probes that
     // were fully austenitised (peak ≥ Ac3), when the case gives the base metal's composition;
-    // NaN elsewhere. `hardness_bound` names the phase bound that applied, if any.
+    // NaN elsewhere. `hardness_bound` names the phase bound that applied, if any; `no_hardness` says
+    // why a line-start or HAZ probe has none.
     double hardness = std::numeric_limits<double>::quiet_NaN();
-    std::string hardness_bound;
+    std::string hardness_bound, no_hardness;
 };
 
 struct RunAnalysis {
@@ -33,7 +40,10 @@ struct RunAnalysis {
     bool composition_assumed = false;  // no composition in the case: a typical one was used
     post::CrossSection section;        // at the station
     std::vector<post::CrossSection> along;  // every few mm along the weld
-    std::vector<ProbeResult> probes;   // automatic ones at the station, then the user's
+    // Automatic ones at the station (for each probe line of the section — flange_mid, flange_toe,
+    // web_mid, web_toe — its start "fusion_<line>" or "surface_<line>", then "haz_<line>_0.5mm",
+    // "_1.0mm" and "_2.0mm" beyond it; then "root"), then the user's ("user_1", ...).
+    std::vector<ProbeResult> probes;
     std::vector<double> t8_5;          // per solid cell, NaN where not defined
     // The probe with the highest hardness estimate (null when none was estimated).
     const ProbeResult* hardest() const;
@@ -49,7 +59,8 @@ post::SectionLevels section_levels(const Case& c);
 // (common practice, no source).
 inline constexpr double shallow_fusion = 0.5e-3;
 
-// Probe offsets into the HAZ beyond the fusion line, normal to each plate [m].
+// HAZ probe offsets along each probe line, beyond its start (the fusion line, or the plate surface
+// where the fusion line does not reach the plate) [m].
 inline constexpr std::array<double, 3> haz_probe_offsets{0.5e-3, 1e-3, 2e-3};
 
 // After `run` has run.

@@ -157,7 +157,8 @@ PreparedRun prepare_run(const Case& c, const mesh::Grid& grid, const Material& m
     r.cells = record_history(*r.sim, c.temperatures.preheat);
     r.station = std::make_unique<post::SectionHistory>(r.sim->cells(), station_slice(grid, c.output.station),
                                                        c.temperatures.preheat);
-    r.sim->add_observer([station = r.station.get()](double t, std::span<const double> T) { station->record(t, T); });
+    r.station_recorder = std::make_unique<StationRecorder>(*r.station);
+    r.sim->add_observer(*r.station_recorder);
     return r;
 }
 

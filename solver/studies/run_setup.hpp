@@ -79,6 +79,21 @@ private:
     post::ThermalHistory& history_;
 };
 
+// Keeps the station's post::SectionHistory up to date as an observer: the slice after every accepted
+// step, and when its weld metal is laid (so its probes read only metal that is there).
+class StationRecorder final : public StepObserver {
+public:
+    explicit StationRecorder(post::SectionHistory& station) : station_(station) {}
+    void born(std::size_t cell, double t, double) override { station_.appear(cell, t); }
+    void step(double, std::span<const double>, double t1, std::span<const double> T1, std::size_t,
+              std::size_t) override {
+        station_.record(t1, T1);
+    }
+
+private:
+    post::SectionHistory& station_;
+};
+
 // A run's thermal history, kept up to date by `sim` from now on.
 struct RecordedHistory {
     std::unique_ptr<post::ThermalHistory> history;
@@ -93,6 +108,7 @@ struct PreparedRun {
     std::unique_ptr<Simulation> sim;
     RecordedHistory cells;
     std::unique_ptr<post::SectionHistory> station;
+    std::unique_ptr<StationRecorder> station_recorder;
     const post::ThermalHistory& history() const { return *cells.history; }
 };
 PreparedRun prepare_run(const Case& c, const mesh::Grid& grid, const Material& material);
