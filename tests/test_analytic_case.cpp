@@ -18,11 +18,11 @@
 #include "solver/studies/run_setup.hpp"
 #include "tests/analytic/moving_sources.hpp"
 #include "tests/moving_source_block.hpp"
+#include "tests/whole_run.hpp"
 
 #include <catch2/catch.hpp>
 
 #include <algorithm>
-#include <atomic>
 #include <cmath>
 #include <limits>
 #include <string>
@@ -93,13 +93,8 @@ std::vector<ProbePeak> run_against_analytic(const std::vector<Override>& overrid
     std::vector<Override> with_probes = overrides;
     with_probes.push_back({"output.probes", probes_at_cell_centres(first, {10e-3, 15e-3, 20e-3, 25e-3},
                                                                   {0.0, std::numbers::pi / 4, std::numbers::pi / 2})});
-    const Case c = load_case(analytic_case, with_probes).value;
-    const mesh::Grid grid = mesh::build_grid(c.joint, c.grid);
-    const Material material = make_material(c.base);
-    PreparedRun run = prepare_run(c, grid, material);
-    const std::atomic<bool> never{false};
-    const RunResult result = run.sim->run(never);
-    REQUIRE(result.completed);
+    const testing::WholeRun run(load_case(analytic_case, with_probes).value);
+    const Case& c = run.c;
     // The analytic source: the case's sphere and net power, along the root line from x = 0,
     // switched off at the end of the weld; coordinates from the root corner.
     const analytic::DoubleEllipsoid source{*c.procedure.net_power, c.source.half_width, c.source.depth,
@@ -108,11 +103,11 @@ std::vector<ProbePeak> run_against_analytic(const std::vector<Override>& overrid
     const analytic::Properties props{30.0, 7850.0 * 600.0};  // tests/cases/constant_properties.csv
     const double T0 = c.temperatures.preheat, root_y = c.joint.web_face(1);
     std::vector<ProbePeak> out;
-    for (const Probe& p : run.sim->probes()) {
+    for (const Probe& p : run.prepared.sim->probes()) {
         ProbePeak r{p.name, p.position, {}, {}};
         r.simulated = sampled_peak(p);
         r.exact = analytic::peak_and_cooling(source, props, p.position[0], p.position[1] - root_y, p.position[2], T0,
-                                             {0, result.end_time, 400});
+                                             {0, run.result.end_time, 400});
         out.push_back(r);
     }
     return out;

@@ -12,10 +12,10 @@
 // Each run is on a coarse grid and a short weld: the file takes about 10 s.
 #include "solver/studies/run_analysis.hpp"
 #include "solver/studies/run_setup.hpp"
+#include "tests/whole_run.hpp"
 
 #include <catch2/catch.hpp>
 
-#include <atomic>
 #include <cmath>
 #include <string>
 #include <vector>
@@ -36,23 +36,10 @@ Case coarse_minimal(std::vector<Override> extra) {
     return load_case(minimal, o).value;
 }
 
-// A whole run as `heatbead run` makes it, with its analysis.
-struct WholeRun {
-    Case c;
-    mesh::Grid grid;
-    Material material;
-    PreparedRun prepared;
-    RunResult result;
+// A whole run with its analysis.
+struct AnalysedRun : testing::WholeRun {
     RunAnalysis analysis;
-    explicit WholeRun(Case case_)
-        : c(std::move(case_)),
-          grid(mesh::build_grid(c.joint, c.grid)),
-          material(make_material(c.base)),
-          prepared(prepare_run(c, grid, material)) {
-        const std::atomic<bool> never{false};
-        result = prepared.sim->run(never);
-        analysis = analyse_run(c, prepared);
-    }
+    explicit AnalysedRun(Case case_) : WholeRun(std::move(case_)), analysis(analyse_run(c, prepared)) {}
     // The station's HAZ probes (fusion line and beyond it).
     std::vector<const ProbeResult*> haz() const {
         std::vector<const ProbeResult*> out;
@@ -119,7 +106,7 @@ TEST_CASE("the stop follows the answers asked, measured from the preheat", "[sto
 }
 
 TEST_CASE("a run at a 335 degC preheat ends by its own criterion, well before the time limit", "[stop][run]") {
-    const WholeRun run(load_case(hot_case).value);
+    const AnalysedRun run(load_case(hot_case).value);
     INFO("stop: " << run.result.stop_reason << " at " << run.result.end_time << " s");
     REQUIRE(run.result.completed);
     CHECK(run.result.stop_cause == StopCause::cooled);
@@ -136,7 +123,7 @@ TEST_CASE("a run at a 335 degC preheat ends by its own criterion, well before th
     }
 
     // The old fixed stop at 300 degC lies below the preheat: only the time limit ends that run.
-    const WholeRun fixed(load_case(hot_case, {{"solver.stop_temperature", "300 degC"}, {"solver.time_limit", "120 s"}}).value);
+    const AnalysedRun fixed(load_case(hot_case, {{"solver.stop_temperature", "300 degC"}, {"solver.time_limit", "120 s"}}).value);
     CHECK(fixed.result.stop_cause == StopCause::time_limit);
     CHECK(fixed.result.end_time == Approx(120));
     CHECK(fixed.result.completed);
@@ -144,7 +131,7 @@ TEST_CASE("a run at a 335 degC preheat ends by its own criterion, well before th
 
 TEST_CASE("a time to 100 degC asked is computed, not hidden by a 300 degC stop", "[stop][run]") {
     SECTION("asked long: the run waits for every cell below 100 degC") {
-        const WholeRun run(coarse_minimal({{"preheat_search.min_time_to_100", "900 s"}, {"solver.time_limit", "2000 s"}}));
+        const AnalysedRun run(coarse_minimal({{"preheat_search.min_time_to_100", "900 s"}, {"solver.time_limit", "2000 s"}}));
         INFO("stop: " << run.result.stop_reason << " at " << run.result.end_time << " s");
         REQUIRE(run.result.completed);
         CHECK(run.result.stop_cause == StopCause::cooled);
@@ -157,12 +144,12 @@ TEST_CASE("a time to 100 degC asked is computed, not hidden by a 300 degC stop",
             CHECK(std::isfinite(p->figures.t8_3));
         }
         // Without the ask the same run stops below 300 degC, before any HAZ probe reaches 100 degC.
-        const WholeRun plain(coarse_minimal({}));
+        const AnalysedRun plain(coarse_minimal({}));
         CHECK(plain.result.stop.temperature == 300);
         for (const ProbeResult* p : plain.haz()) CHECK(std::isnan(p->figures.time_to_100));
     }
     SECTION("asked short: the run stops once that time has passed, the answer \"at least\" known") {
-        const WholeRun run(coarse_minimal({{"preheat_search.min_time_to_100", "20 s"}}));
+        const AnalysedRun run(coarse_minimal({{"preheat_search.min_time_to_100", "20 s"}}));
         INFO("stop: " << run.result.stop_reason << " at " << run.result.end_time << " s");
         REQUIRE(run.result.completed);
         CHECK(run.result.stop_cause == StopCause::held);

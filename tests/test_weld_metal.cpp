@@ -17,10 +17,10 @@
 #include "solver/physics/procedure.hpp"
 #include "solver/studies/run_analysis.hpp"
 #include "solver/studies/run_setup.hpp"
+#include "tests/whole_run.hpp"
 
 #include <catch2/catch.hpp>
 
-#include <atomic>
 #include <cmath>
 #include <string>
 #include <vector>
@@ -56,24 +56,20 @@ Outcome run_reference(const std::string& model) {
                                          {"solver.weld_metal", model},
                                          {"output.probes", "[[75, 11.5, -1.75]]"}})
                         .value;
-    const mesh::Grid grid = mesh::build_grid(c.joint, c.grid);
-    const Material material = make_material(c.base);
-    PreparedRun run = prepare_run(c, grid, material);
-    const std::atomic<bool> never{false};
-    const RunResult result = run.sim->run(never);
-    REQUIRE(result.completed);
-    const RunAnalysis a = analyse_run(c, run);
+    const testing::WholeRun run(c);
+    const RunAnalysis a = analyse_run(c, run.prepared);
     Outcome o;
     o.penetration_flange = a.section.penetration_flange;
     o.penetration_web = a.section.penetration_web;
     for (const auto& p : a.probes) {
         if (p.name == "user_1") o.mid_leg_peak = p.figures.peak, o.mid_leg_t8_5 = p.figures.t8_5;
     }
-    o.energy = result.energy;
+    o.energy = run.result.energy;
     const auto birth = make_passes(c).front().birth_temperature;
-    if (birth) o.birth_enthalpy_rise = material.enthalpy(*birth) - material.enthalpy(c.temperatures.preheat);
+    if (birth) o.birth_enthalpy_rise = run.material.enthalpy(*birth) - run.material.enthalpy(c.temperatures.preheat);
     // The bead's cells: their cross-section areas times the length of the plates.
-    const auto& cells = run.sim->cells();
+    const auto& cells = run.prepared.sim->cells();
+    const mesh::Grid& grid = run.grid;
     for (std::size_t s = 0; s < cells.ns; ++s) {
         if (cells.tag[s] == mesh::Tag::weld) o.weld_volume += grid.y.width(cells.j[s]) * grid.z.width(cells.k[s]);
     }

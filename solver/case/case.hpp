@@ -40,9 +40,10 @@ struct SurfaceSpec {
     double contact_conductance = 1000; // W/(m2 K), web edge on flange outside the weld
 };
 
-// How the weld metal enters a run: born as the droplets arrive (at the transfer mode's droplet
-// temperature), born at the liquidus (the earlier model), or present from the start at the
-// preheat with the whole net power in the source (the classical model).
+// How the weld metal enters a run: born at the liquidus (the droplets' superheat stays in the
+// source, whose transfer-mode rule carries the droplets' heat in its column), born at the transfer
+// mode's droplet temperature, or present from the start at the preheat with the whole net power
+// in the source (the classical model). solver/numerics/THEORY.md compares them.
 enum class WeldMetalModel { as_droplets, at_liquidus, present_from_start };
 inline constexpr std::array<std::string_view, 3> weld_metal_names{"as_droplets", "at_liquidus", "present_from_start"};
 
@@ -54,7 +55,7 @@ struct SolverSpec {
     // degC, given by the user; empty ("auto"): the stop follows the answers the run must give
     // (solver/studies/run_setup.hpp, stop_plan).
     std::optional<double> stop_temperature;
-    WeldMetalModel weld_metal = WeldMetalModel::as_droplets;
+    WeldMetalModel weld_metal = WeldMetalModel::at_liquidus;
 };
 
 struct OutputSpec {

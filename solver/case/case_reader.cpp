@@ -344,7 +344,7 @@ void read_solver(Case& c, CaseDocument& doc, const SolverFacts& facts) {
         c.solver.stop_temperature = s.quantity("stop_temperature", Dimension::temperature, "degC", std::nullopt,
                                                Bounds{c.temperatures.ambient, 500, true, false});
     }
-    c.solver.weld_metal = enum_of<WeldMetalModel>(weld_metal_names, s.choice("weld_metal", weld_metal_names, "as_droplets"));
+    c.solver.weld_metal = enum_of<WeldMetalModel>(weld_metal_names, s.choice("weld_metal", weld_metal_names, "at_liquidus"));
 }
 
 void read_output(Case& c, CaseDocument& doc) {

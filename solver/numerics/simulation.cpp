@@ -96,7 +96,7 @@ double probe_reading(const Probe& probe, const mesh::SolidCells& cells, std::spa
 
 void Simulation::birth(const Pass& pass, const TorchPath& path, double t) {
     // Weld metal exists where the arc has been: cells whose centre the ellipsoid origin has passed.
-    // It arrives as the droplets reach the pool, at the pass's birth temperature; the heat that
+    // It arrives molten, at the pass's birth temperature; the heat that
     // took it there is the filler's share of the arc power, taken off the source for the whole
     // pass (filler_power). Metal present from the start is never born.
     if (pass.side == 0 || !pass.birth_temperature) return;

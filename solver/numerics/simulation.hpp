@@ -3,7 +3,7 @@
 // last pass) or the time limit is reached.
 //
 // Each step: weld metal the arc has passed is born (void → solid at the pass's birth temperature,
-// the droplets' as they reach the pool; the heat that took it there from the initial temperature
+// the liquidus or the droplets'; the heat that took it there from the initial temperature
 // is the filler's steady share of the arc's net power, taken off the source, so arc energy =
 // stored + lost still holds), unless the pass's weld metal was present from the start; the
 // source is deposited at mid-step; the operator is
