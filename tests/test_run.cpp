@@ -17,6 +17,7 @@
 #include "solver/studies/run_setup.hpp"
 #include "solver/numerics/simulation.hpp"
 
+#include "tests/analysed_run.hpp"
 #include "tests/temp_folder.hpp"
 
 #include <catch2/catch.hpp>
@@ -268,15 +269,10 @@ TEST_CASE("a cold short-circuit pass that does not fuse the flange still reports
     // that short-circuit transfer on thick plate risks it). Everything else is what run_analysis.hpp
     // and summary.hpp promise: probes start from the plate surface where the fusion line does not
     // reach it, and every figure is a value or says why it cannot be one.
-    const Case c = load_case((source_dir / "tests/cases/cold_short_circuit.toml").string()).value;
-    const mesh::Grid grid = mesh::build_grid(c.joint, c.grid);
-    const Material material = make_material(c.base);
-    PreparedRun run = prepare_run(c, grid, material);
-    const std::atomic<bool> never{false};
-    const RunResult result = run.sim->run(never);
-    REQUIRE(result.completed);
-    const RunAnalysis a = analyse_run(c, run);
-    const post::Summary summary = make_summary(c, result, a, 0);
+    const heatbead::testing::AnalysedRun r(load_case((source_dir / "tests/cases/cold_short_circuit.toml").string()).value);
+    REQUIRE(r.result.completed);
+    const RunAnalysis& a = r.analysis;
+    const post::Summary& summary = r.summary;
 
     REQUIRE(a.section.penetration_flange <= 0);
     REQUIRE_FALSE(a.section.flange_mid.fused);
