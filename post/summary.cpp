@@ -23,16 +23,17 @@ std::string missing_text(const std::vector<MissingOutput>& missing) {
     return out;
 }
 
+std::string display(const SummaryItem& i) {
+    if (!i.text.empty()) return i.text;
+    if (i.missing()) return i.reason.empty() ? "none" : "none (" + i.reason + ")";
+    const std::string value = format_text("%.*f", i.decimals, *i.value);
+    return i.unit.empty() ? value : value + " " + i.unit;
+}
+
 namespace {
 // The item as the screen shows it; `reason_shown` is the reason already given on this line.
 std::string shown(const SummaryItem& i, const std::string& reason_shown) {
-    if (!i.text.empty()) return i.text;
-    if (i.missing()) {
-        if (i.reason.empty()) return "none";
-        return i.reason == reason_shown ? "none" : "none (" + i.reason + ")";
-    }
-    const std::string value = format_text("%.*f", i.decimals, *i.value);
-    return i.unit.empty() ? value : value + " " + i.unit;
+    return i.missing() && !i.reason.empty() && i.reason == reason_shown ? "none" : display(i);
 }
 
 std::string csv_field(const std::string& s) {

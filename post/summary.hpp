@@ -22,6 +22,9 @@ struct SummaryItem {
     bool missing() const;  // neither a text nor a finite value
 };
 
+// The item as shown on screen and in the report: its text, its value with unit, or "none (reason)".
+std::string display(const SummaryItem& item);
+
 // An item without a value: its key and why.
 struct MissingOutput {
     std::string key, reason;

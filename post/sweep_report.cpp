@@ -71,6 +71,11 @@ void validate(const SweepReportInput& in) {
                                         std::to_string(in.rows[r].size()) + " values for " +
                                         std::to_string(in.axes.size()) + " axes and " +
                                         std::to_string(in.outputs.size()) + " outputs");
+    for (std::size_t f = 0; f < in.incomplete.size(); ++f)
+        if (in.incomplete[f].axis_values.size() != in.axes.size())
+            throw std::invalid_argument("sweep report: point " + std::to_string(f + 1) + " with missing outputs has " +
+                                        std::to_string(in.incomplete[f].axis_values.size()) + " axis values for " +
+                                        std::to_string(in.axes.size()) + " axes");
     for (std::size_t f = 0; f < in.failures.size(); ++f)
         if (in.failures[f].axis_values.size() != in.axes.size())
             throw std::invalid_argument("sweep report: failed point " + std::to_string(f + 1) + " has " +
@@ -214,19 +219,22 @@ std::string map_figure(const SweepReportInput& in, const std::vector<const std::
     return figure(id, plot.svg(), caption);
 }
 
-std::string failures_section(const SweepReportInput& in) {
-    if (in.failures.empty()) return "<section class=\"table\"><h2>Failed points</h2><p>No failures.</p></section>\n";
+// A table of points, their axis values then one column of words (`column`); `none` when there is none.
+template <typename Point>
+std::string points_section(const SweepReportInput& in, const char* title, const char* none, const char* column,
+                           const std::vector<Point>& points, std::string Point::*words) {
+    if (points.empty()) return std::string("<section class=\"table\"><h2>") + title + "</h2><p>" + none + "</p></section>\n";
     std::vector<std::string> columns;
     for (const auto& a : in.axes) columns.push_back(with_unit(a));
-    columns.push_back("error");
+    columns.push_back(column);
     std::vector<TableRow> rows;
-    rows.reserve(in.failures.size());
-    for (const auto& f : in.failures) {
-        TableRow row{f.axis_values, ""};
-        row.cells.push_back(f.error);
+    rows.reserve(points.size());
+    for (const auto& p : points) {
+        TableRow row{p.axis_values, ""};
+        row.cells.push_back(p.*words);
         rows.push_back(std::move(row));
     }
-    return column_table("Failed points", columns, rows) + "\n";
+    return column_table(title, columns, rows) + "\n";
 }
 
 }  // namespace
@@ -240,7 +248,8 @@ std::string render_sweep_report(const SweepReportInput& in) {
                                    .warnings = {},
                                    .extra_style = page_style});
     const std::size_t done = in.rows.size(), failed = in.failures.size(), waiting = in.points_total - done - failed;
-    page += "<p class=\"summary\">Points: " + std::to_string(done) + " done, " + std::to_string(failed) + " failed, " +
+    const std::string incomplete = in.incomplete.empty() ? "" : " (" + std::to_string(in.incomplete.size()) + " with outputs missing)";
+    page += "<p class=\"summary\">Points: " + std::to_string(done) + " done" + incomplete + ", " + std::to_string(failed) + " failed, " +
             std::to_string(in.points_total) + " in all" + (waiting ? " (" + std::to_string(waiting) + " not yet run)" : "") +
             ".</p>\n";
 
@@ -261,7 +270,9 @@ std::string render_sweep_report(const SweepReportInput& in) {
         if (in.axes.size() >= 2) page += map_figure(in, placed, o, unique_id(ids, "figure-map-" + name)) + "\n";
         page += "</div></section>\n";
     }
-    page += failures_section(in);
+    page += points_section(in, "Failed points", "No failures.", "error", in.failures, &SweepReportInput::Failure::error);
+    page += points_section(in, "Points with missing outputs", "Every point that ran has every output.", "status",
+                           in.incomplete, &SweepReportInput::Incomplete::status);
     return page + page_end();
 }
 

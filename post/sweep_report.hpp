@@ -2,7 +2,7 @@
 // table: how each main output responds to each input axis (points, one plot per output and axis;
 // points sharing the other axes' values joined by a line), a map for the first two axes when the
 // sweep varies two or more (each point a marker coloured by the output, with a colour bar), the
-// failed points with their errors, and the caution.
+// failed points with their errors, the points with missing outputs and why, and the caution.
 #pragma once
 
 #include <filesystem>
@@ -27,12 +27,20 @@ struct SweepReportInput {
         std::string error;
     };
     std::vector<Failure> failures;
+    // Points that ran but lack outputs (they are in `rows` too): their axis values as text, and their
+    // status, which names what is missing and why.
+    struct Incomplete {
+        std::vector<std::string> axis_values;
+        std::string status;
+    };
+    std::vector<Incomplete> incomplete;
     std::size_t points_total = 0;  // including those not yet run
     std::string caution;  // empty: sweep_page_caution (post/cautions.hpp)
 };
 
 // The whole HTML page. Throws std::invalid_argument for a row whose size is not axes + outputs, a
-// failure whose axis values are not one per axis, or a points_total below the points done and failed.
+// failed or incomplete point whose axis values are not one per axis, or a points_total below the
+// points done and failed.
 // The figures show at most the first 6 outputs against the first 4 axes (the page says so when
 // there are more); rows with a non-finite axis value and non-finite outputs are left out of them.
 std::string render_sweep_report(const SweepReportInput& input);

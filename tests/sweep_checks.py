@@ -6,6 +6,9 @@
   sweep_checks.py resume HEATBEAD SWEEP WORKDIR SIGKILL part-way, re-run: the whole table, no point
                                                 computed twice, no corrupt file
   sweep_checks.py trends TABLE.csv              physics across the sweep (sources beside each check)
+  sweep_checks.py complete HEATBEAD SWEEP WORKDIR  no silent empty cell: every output of every point a
+                                                value, or named with its reason in the point's status,
+                                                and such points listed in the report
 Exit 0 on success, 1 with a message otherwise.
 """
 import csv
@@ -132,12 +135,45 @@ def trends(table):
     print("trends hold: penetration and t8/5 grow with current; t8/5 falls with thickness, then levels off")
 
 
+def key_of(header):
+    return header.split(" [")[0]
+
+
+def complete(heatbead, sweep_file, work):
+    out = work + "/complete"
+    rows = sweep([heatbead, "sweep", sweep_file, "--jobs", "2", "--threads", "1"], out)
+    axes = {key_of(h) for h in rows[0] if h.startswith("procedure.") or h.startswith("joint.")}
+    fixed = {"point", "hash", "status", "error"} | axes
+    incomplete = 0
+    for r in rows:
+        if r["status"] == "failed":
+            fail("point %s failed: %s" % (r["point"], r["error"]))
+        for header, cell in r.items():
+            key = key_of(header)
+            if key in fixed or cell != "":
+                continue
+            # An empty cell must be named in the status, with why (post/summary.hpp, missing_text).
+            if key not in r["status"] or "(" not in r["status"]:
+                fail("point %s: %s is empty and its status (%s) does not say why" % (r["point"], header, r["status"]))
+        if r["status"] not in ("ok", "outside validity"):
+            incomplete += 1
+            if not r["status"].startswith("missing ") and "; missing " not in r["status"]:
+                fail("point %s: status %r is neither ok nor names what is missing" % (r["point"], r["status"]))
+    with open(os.path.join(out, "report.html")) as f:
+        page = f.read()
+    if incomplete and "Points with missing outputs" not in page:
+        fail("the report does not list the points with missing outputs")
+    print("%d points: every cell a value or named in its status with why (%d with outputs missing)" % (len(rows), incomplete))
+
+
 if __name__ == "__main__":
     what = sys.argv[1]
     if what == "same":
         same(*sys.argv[2:5])
     elif what == "resume":
         resume(*sys.argv[2:5])
+    elif what == "complete":
+        complete(*sys.argv[2:5])
     elif what == "trends":
         trends(sys.argv[2])
     else:

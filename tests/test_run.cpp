@@ -13,9 +13,11 @@
 #include "mesh/grid.hpp"
 #include "mesh/solid_cells.hpp"
 #include "solver/case/case_reader.hpp"
+#include "solver/studies/run_analysis.hpp"
 #include "solver/studies/run_setup.hpp"
 #include "solver/numerics/simulation.hpp"
 
+#include "tests/analysed_run.hpp"
 #include "tests/temp_folder.hpp"
 
 #include <catch2/catch.hpp>
@@ -258,4 +260,64 @@ TEST_CASE("a property table named by the case, relative to the case file, gives 
     CHECK(m.conductivity(1000) == Approx(30).epsilon(1e-12));
     // Constant c below the melting range: dH/dT = ρc, hand computation 7850 × 600 = 4.71e6 J/(m³ K).
     CHECK(m.volumetric_heat_capacity(500) == Approx(7850.0 * 600).epsilon(1e-9));
+}
+
+TEST_CASE("a cold short-circuit pass that does not fuse the flange still reports cooling and hardness at the HAZ probes",
+          "[run]") {
+    // tests/cases/cold_short_circuit.toml: 150 A, 18 V, 6 mm/s on a 20 mm flange (invented), 1 mm grid,
+    // 50 mm weld: a pass that leaves the fusion line in the bead (cold lap; common practice, no source,
+    // that short-circuit transfer on thick plate risks it). Everything else is what run_analysis.hpp
+    // and summary.hpp promise: probes start from the plate surface where the fusion line does not
+    // reach it, and every figure is a value or says why it cannot be one.
+    const heatbead::testing::AnalysedRun r(load_case((source_dir / "tests/cases/cold_short_circuit.toml").string()).value);
+    REQUIRE(r.result.completed);
+    const RunAnalysis& a = r.analysis;
+    const post::Summary& summary = r.summary;
+
+    REQUIRE(a.section.penetration_flange <= 0);
+    REQUIRE_FALSE(a.section.flange_mid.fused);
+    std::string notes;
+    for (const auto& [group, note] : summary.notes()) notes += note + "\n";
+    INFO(notes);
+    CHECK(notes.find("cold lap") != std::string::npos);
+    CHECK(notes.find("no fusion into the flange at mid-leg") != std::string::npos);
+
+    // Every HAZ probe: each cooling figure and the hardness are a value or carry the reason.
+    std::size_t haz = 0;
+    for (const auto& p : a.probes) {
+        if (p.kind != ProbeKind::haz) continue;
+        ++haz;
+        const auto& f = p.figures;
+        INFO(p.name);
+        for (const auto& [value, why] : {std::pair{f.t8_5, &f.no_t8_5}, std::pair{f.t8_3, &f.no_t8_3},
+                                         std::pair{f.rate_540, &f.no_rate_540}, std::pair{f.rate_700, &f.no_rate_700},
+                                         std::pair{p.hardness, &p.no_hardness}}) {
+            CHECK(std::isfinite(value) == why->empty());
+        }
+    }
+    CHECK(haz == 12);  // 0.5, 1 and 2 mm on each of the four probe lines
+    // The HAZ probes nearest the bead under the middle of each leg have them all, from the surface.
+    for (const char* name : {"haz_flange_mid_0.5mm", "haz_web_mid_0.5mm"}) {
+        const auto p = std::find_if(a.probes.begin(), a.probes.end(), [&](const ProbeResult& q) { return q.name == name; });
+        REQUIRE(p != a.probes.end());
+        INFO(name);
+        CHECK(std::isfinite(p->figures.t8_5));
+        CHECK(std::isfinite(p->figures.t8_3));
+        CHECK(std::isfinite(p->figures.rate_540));
+        CHECK(std::isfinite(p->figures.rate_700));
+        CHECK(std::isfinite(p->hardness));
+    }
+    CHECK(a.section.flange_mid.surface[1] == 0.0);
+    // The summary has the HAZ t8/5 range and hardness; whatever it lacks says why.
+    for (const char* key : {"t8_5_min", "t8_5_max", "cooling_rate_540", "haz_hardness_max"}) {
+        const auto& items = summary.items();
+        const auto i = std::find_if(items.begin(), items.end(), [&](const post::SummaryItem& x) { return x.key == key; });
+        REQUIRE(i != items.end());
+        INFO(key);
+        CHECK_FALSE(i->missing());
+    }
+    for (const auto& m : summary.missing()) {
+        INFO(m.key);
+        CHECK_FALSE(m.reason.empty());
+    }
 }

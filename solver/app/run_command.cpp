@@ -215,9 +215,9 @@ void RunCommand::write_vtk() {
 
 void RunCommand::write_report() {
     if (!wants("report")) return;
+    // The summary's notes (lack of fusion, cold lap, probes from a plate surface, hardness) and the root.
     std::vector<std::string> notes;
-    if (analysis_.section.lack_of_fusion_flange) notes.push_back("lack of fusion into the flange predicted");
-    if (analysis_.section.lack_of_fusion_web) notes.push_back("lack of fusion into the web predicted");
+    for (const auto& [group, note] : summary_.notes()) notes.push_back(note);
     if (!analysis_.section.root_fused) notes.push_back("the root is not fused");
     post::write_report(out_ / "report.html", make_report_input(c_, prepared_, analysis_, summary_, notes));
     written_.push_back((out_ / "report.html").string());

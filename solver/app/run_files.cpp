@@ -75,17 +75,7 @@ post::ReportInput make_report_input(const Case& c, const PreparedRun& run, const
     row("web thickness", "%.1f mm", j.web_thickness * 1e3);
     row("legs asked (flange)", "%.1f mm", j.leg_flange * 1e3);
     row("legs asked (web)", "%.1f mm", j.leg_web * 1e3);
-    for (const auto& item : summary.items()) {
-        std::string value = item.text;
-        if (value.empty()) {
-            if (item.value && !std::isnan(*item.value)) {
-                value = format_text("%.*f %s", item.decimals, *item.value, item.unit.c_str());
-            } else {
-                value = "n/a";
-            }
-        }
-        r.results.emplace_back(item.group + ": " + item.label, value);
-    }
+    for (const auto& item : summary.items()) r.results.emplace_back(item.group + ": " + item.label, post::display(item));
 
     r.plates = plate_outlines(j);
     r.bead = bead_outline(j);

@@ -5,6 +5,7 @@
 #include "post/atomic_file.hpp"
 #include "post/cautions.hpp"
 #include "post/hdf5_results.hpp"
+#include "post/summary.hpp"
 #include "post/sweep_report.hpp"
 #include "solver/studies/run_setup.hpp"
 #include "solver/core/exit_codes.hpp"
@@ -80,7 +81,9 @@ nlohmann::json outputs_of(const fs::path& dir) {
     if (summary.is_discarded()) return outputs;
     for (const auto& [key, item] : summary.items()) {
         if (key == "notes" || !item.is_object()) continue;
-        outputs.push_back({{"key", key}, {"unit", item.value("unit", "")}, {"value", item["value"]}});
+        nlohmann::json output{{"key", key}, {"unit", item.value("unit", "")}, {"value", item["value"]}};
+        if (item.contains("reason")) output["reason"] = item["reason"];
+        outputs.push_back(std::move(output));
     }
     return outputs;
 }
@@ -94,20 +97,35 @@ std::string last_line(const fs::path& file) {
     return last;
 }
 
+// The outputs of a row that have no value, with why (post::missing_text names them).
+std::vector<post::MissingOutput> missing_outputs(const nlohmann::json& outputs) {
+    std::vector<post::MissingOutput> missing;
+    for (const auto& o : outputs) {
+        if (o["value"].is_null()) missing.push_back({o["key"].get<std::string>(), o.value("reason", "")});
+    }
+    return missing;
+}
+
 nlohmann::json make_row(const SweepPlan& plan, const Job& job, const fs::path& dir, int code) {
     nlohmann::json row;
     row["index"] = job.point.index;
     row["hash"] = job.hash;
     row["axes"] = axis_cells(plan, job);
     const bool written = code == exit_code::ok || code == exit_code::outside_validity;
-    row["status"] = code == exit_code::ok ? "ok" : code == exit_code::outside_validity ? "outside validity" : "failed";
+    std::string status = code == exit_code::ok ? "ok" : code == exit_code::outside_validity ? "outside validity" : "failed";
     row["error"] = code == exit_code::ok ? "" : last_line(dir / "log.txt");
     if (row["error"] == "" && code != exit_code::ok) row["error"] = "exit code " + std::to_string(code);
     row["outputs"] = written ? outputs_of(dir) : nlohmann::json::array();
+    // A point whose outputs are missing is not ok: its status names them and why.
+    if (const std::string missing = post::missing_text(missing_outputs(row["outputs"])); !missing.empty()) {
+        status = status == "ok" ? missing : status + "; " + missing;
+    }
+    row["status"] = status;
     return row;
 }
 
-bool done(const nlohmann::json& row) { return row.value("status", "") == "ok" || row.value("status", "") == "outside validity"; }
+// Computed, whatever it gave: a point that failed runs again on the next run of the sweep.
+bool done(const nlohmann::json& row) { return row.contains("status") && row["status"] != "failed"; }
 
 // Rows found in `dir`/points/*/row.json, by hash.
 std::map<std::string, nlohmann::json> rows_in(const fs::path& dir) {
@@ -187,7 +205,8 @@ post::TableRecord table_h5(const std::vector<nlohmann::json>& rows, const Column
     post::TableRecord t;
     t.program_version = HEATBEAD_VERSION;
     post::NumberColumn index{"point", "1", "index of the point in the sweep", {}};
-    post::TextColumn hash{"hash", "hash of the point's resolved case (its identity)", {}}, status{"status", "ok, outside validity or failed", {}},
+    post::TextColumn hash{"hash", "hash of the point's resolved case (its identity)", {}},
+        status{"status", "ok, outside validity or failed; and the outputs missing, with why", {}},
         error{"error", "why the point failed (empty when it did not)", {}};
     for (const auto& r : rows) {
         index.values.push_back(static_cast<double>(r["index"].get<std::size_t>()));
@@ -241,6 +260,12 @@ post::SweepReportInput report_of(const std::vector<nlohmann::json>& rows, const 
             f.error = row["error"];
             r.failures.push_back(std::move(f));
             continue;
+        }
+        if (row["status"] != "ok" && row["status"] != "outside validity") {
+            post::SweepReportInput::Incomplete point;
+            for (const auto& a : row["axes"]) point.axis_values.push_back(a.value("text", ""));
+            point.status = row["status"];
+            r.incomplete.push_back(std::move(point));
         }
         std::vector<double> values;
         for (const auto& a : row["axes"]) values.push_back(a["value"].is_number() ? a["value"].get<double>() : nan);

@@ -271,6 +271,7 @@ post::Summary make_summary(const Case& c, const RunResult& result, const RunAnal
     };
     // The cooling figures come from the HAZ probes (0.5, 1 and 2 mm beyond each probe line's start).
     using F = post::CycleFigures;
+    // Every cycle has a peak: its reason field is never read (only without any HAZ probe at all).
     const Spread peak = spread(c, result, a, &F::peak, &F::no_t8_5, "a peak", 0, 0);
     may_miss("HAZ", "haz_peak_min", "peak at the HAZ probes from", peak.lo, "degC", 0, peak.reason);
     may_miss("HAZ", "haz_peak_max", "to", peak.hi, "degC", 0, peak.reason);
