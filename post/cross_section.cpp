@@ -369,8 +369,8 @@ struct Areas {
     double deposited = 0, melted_base = 0;
 };
 
-// Area of the zone above the solidus, within the joint's true outline: zone cells whose eight neighbours
-// are in the zone count whole; every other cell position next to the zone (fused or not, solid or void:
+// Area of the zone above the solidus, within the joint's true outline: full zone cells whose eight
+// neighbours are in the zone count whole; every other cell position next to the zone (fused or not, solid or void:
 // the bead's true face need not follow the cells) counts the share of its 8×8 sample points that lie in
 // metal (mesh::material_at) with an interpolated peak at or above the solidus, each point booked to the
 // metal it lies in. Points of the bead are read from the bead's own cells where any is near (the molten
@@ -397,7 +397,8 @@ Areas fused_areas(const SliceField& f, const mesh::JointGeometry& joint, const s
         // Fused cells outside the zone belong to the other side or to a separate spot: not this bead's.
         if (s != none && !zone[s] && f.value(s) >= solidus) return;
         const double cell = grid.y.width(j) * grid.z.width(k);
-        bool interior = s != none && zone[s];
+        // A cut weld cell is only partly metal (mesh/bead_fill.hpp): it is sampled, never counted whole.
+        bool interior = s != none && zone[s] && cells.fill[s] == 1;
         for (int dk = -1; dk <= 1 && interior; ++dk)
             for (int dj = -1; dj <= 1 && interior; ++dj)
                 interior = in_zone(static_cast<std::ptrdiff_t>(j) + dj, static_cast<std::ptrdiff_t>(k) + dk);

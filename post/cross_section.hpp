@@ -70,9 +70,9 @@ struct SectionLevels {
 //   bisector to the face (smaller than the geometric root-to-face distance); 0 if nothing on it fused.
 // fused_area: area of the fusion zone within the joint's true outline (mesh::material_at);
 //   deposited_area: its part in the bead, i.e. the weld metal that fused; melted_base_area: its part in
-//   the flange and web; dilution = melted base / fused. A fused cell whose eight neighbours are fused
-//   counts whole; every other cell position next to the zone (solid or void, as the bead's face cuts
-//   through cells) counts the share of its 8×8 sample points that lie in metal with an interpolated peak
+//   the flange and web; dilution = melted base / fused. A full fused cell whose eight neighbours are
+//   fused counts whole; every other cell position next to the zone (a cut weld cell, solid or void, as
+//   the bead's face cuts through cells: mesh/bead_fill.hpp) counts the share of its 8×8 sample points that lie in metal with an interpolated peak
 //   at or above the solidus, each booked to the metal it lies in. Bead points are read from the bead's
 //   own cells (the bead is weld metal right up to the plate), plate points from all cells around them.
 // root_fused: the fusion zone holds both the point root_margin below the root corner (y_w, −m), into the
