@@ -11,7 +11,8 @@
 //    (0.63 to −0.23 mm) and the fused flange leg jumped 0.54 mm; with cut cells the largest steps
 //    are 0.32 mm (flange), 0.24 mm (web), 0.1 mm (legs) and 0.96 mm² (fused area);
 //  - mass balance (exact): the weld metal laid is the bead asked for, l²/2 per unit length for a flat
-//    fillet of legs l, and the heat it carries in is that volume times H(T_birth) − H(T0).
+//    fillet of legs l, and the heat it carries in is that volume times H(T_birth) − H(T0);
+//  - energy conservation (first law): arc = stored + lost.
 // Sixteen runs of about a second each, two side by side on one thread each.
 #include "mesh/joint.hpp"
 #include "solver/core/parallel_tasks.hpp"
@@ -99,6 +100,8 @@ TEST_CASE("asked legs 8.0 to 9.5 mm on a 3/8 in spray fillet: the bead is laid e
         CHECK(p.laid_area == Approx(p.bead_area).epsilon(1e-9));
         CHECK(p.filler_area == Approx(p.bead_area).epsilon(1e-9));
         CHECK(p.summary.at("deposited_area") * mm2 == Approx(p.bead_area).epsilon(1e-6));
+        // First law: arc = stored + lost (the summary's balance error is in per cent).
+        CHECK(std::abs(p.summary.at("energy_balance_error")) < 1e-4);
         // A bead born molten fuses to its toes: the fused legs are the laid legs.
         CHECK(p.summary.at("fused_leg_flange") == Approx(p.legs).margin(0.02));
         CHECK(p.summary.at("fused_leg_web") == Approx(p.legs).margin(0.02));
