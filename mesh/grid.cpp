@@ -62,6 +62,14 @@ SectionBox refine_box(const JointGeometry& joint, double margin) {
 
 Tag Grid::tag(std::size_t j, std::size_t k) const { return section_tags[j + y.cells() * k]; }
 
+const CellFill& Grid::fill(std::size_t j, std::size_t k) const {
+    static const CellFill full;
+    const std::size_t position = j + y.cells() * k;
+    const auto it = std::lower_bound(bead.begin(), bead.end(), position,
+                                     [](const BeadCell& c, std::size_t p) { return c.position < p; });
+    return it != bead.end() && it->position == position ? it->fill : full;
+}
+
 std::size_t Grid::cells() const { return x.cells() * y.cells() * z.cells(); }
 
 std::size_t Grid::solid_cells() const { return x.cells() * count_tag_cells(section_tags, is_solid); }
@@ -95,10 +103,15 @@ Grid build_grid(const JointGeometry& joint, const GridSettings& settings) {
         throw std::invalid_argument("build_grid: cross-section spacing too fine (" + std::to_string(ny) + " x " +
                                     std::to_string(nz) + " cells)");
 
+    grid.bead = bead_cells(joint, grid.y.faces, grid.z.faces);
     grid.section_tags.reserve(ny * nz);
-    for (std::size_t k = 0; k < nz; ++k)
-        for (std::size_t j = 0; j < ny; ++j)
-            grid.section_tags.push_back(material_at(joint, grid.y.centre(j), grid.z.centre(k)));
+    for (std::size_t k = 0; k < nz; ++k) {
+        for (std::size_t j = 0; j < ny; ++j) {
+            const Tag at_centre = material_at(joint, grid.y.centre(j), grid.z.centre(k));
+            grid.section_tags.push_back(at_centre == Tag::weld ? Tag::empty : at_centre);
+        }
+    }
+    for (const BeadCell& c : grid.bead) grid.section_tags[c.position] = Tag::weld;
     return grid;
 }
 

@@ -4,6 +4,7 @@
 #include <cstddef>
 #include <vector>
 
+#include "mesh/bead_fill.hpp"
 #include "mesh/grading.hpp"
 #include "mesh/joint.hpp"
 
@@ -43,8 +44,12 @@ struct Grid {
     Axis x, y, z;
     // Tags of one cross-section, the same at every x; cell (j, k) is at index j + ny·k.
     std::vector<Tag> section_tags;
+    // The weld cells with how much of each the bead fills (mesh/bead_fill.hpp), in increasing position.
+    std::vector<BeadCell> bead;
 
     Tag tag(std::size_t j, std::size_t k) const;
+    // The metal of cell (j, k): its bead fill for a weld cell, full for any other.
+    const CellFill& fill(std::size_t j, std::size_t k) const;
     std::size_t cells() const;        // nx·ny·nz
     std::size_t solid_cells() const;  // flange, web or weld, over all x
     std::size_t weld_cells() const;   // over all x
@@ -54,8 +59,9 @@ struct Grid {
 inline constexpr std::size_t max_section_cells = 1'000'000;
 
 // y faces hit ±W/2 and both web faces; z faces hit -t_f, 0, g and g + H, so plate surfaces are cell faces.
-// Cells are fine (cross_section.finest) in refine_box(joint, refine_margin) and graded outside it. Each
-// cell is tagged with the material at its centre (a staircase bead outline, first order in the spacing).
+// Cells are fine (cross_section.finest) in refine_box(joint, refine_margin) and graded outside it. A plate
+// cell is tagged with its plate; every cell the bead fills by at least min_fill is weld, with its fill
+// (bead_cells: the bead's face cuts through cells); the rest is void.
 // Throws std::invalid_argument for an invalid joint or settings, or a cross-section above max_section_cells.
 Grid build_grid(const JointGeometry& joint, const GridSettings& settings);
 

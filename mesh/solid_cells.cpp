@@ -24,6 +24,10 @@ SolidCells index_solid_cells(const Grid& grid) {
             cells.j.push_back(static_cast<std::uint32_t>(jj));
             cells.k.push_back(static_cast<std::uint32_t>(kk));
             cells.tag.push_back(t);
+            const CellFill& metal = grid.fill(jj, kk);
+            cells.fill.push_back(metal.area);
+            cells.face_fill.push_back(metal.faces);
+            cells.free_face.push_back(metal.free_face);
         }
     }
     cells.ns = cells.j.size();

@@ -21,15 +21,17 @@ inline constexpr std::size_t parallel_min_cells = 1 << 14;
 
 inline constexpr std::uint32_t no_neighbour = std::numeric_limits<std::uint32_t>::max();
 
-// Directions of the section neighbours.
-enum SectionSide : int { minus_y = 0, plus_y = 1, minus_z = 2, plus_z = 3 };
-
 struct SolidCells {
     std::size_t nx = 0, ns = 0;
     std::vector<std::uint32_t> j, k;  // section position of each s
     std::vector<Tag> tag;             // material of each s
     // Solid neighbour of s on each side (SectionSide order), or no_neighbour (a free surface).
     std::vector<std::array<std::uint32_t, 4>> neighbour;
+    // The metal of each s (mesh/bead_fill.hpp; plate cells are full): the share φ of its cross-section,
+    // the share of each face (SectionSide order) and the length of the bead's free face inside it.
+    std::vector<double> fill;
+    std::vector<std::array<double, 4>> face_fill;
+    std::vector<double> free_face;
     // True where the face on that side is a web–flange contact (the web edge resting on the
     // flange): heat crosses it through a contact conductance until the metal there fuses.
     std::vector<std::array<bool, 4>> contact;

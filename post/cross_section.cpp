@@ -369,14 +369,16 @@ struct Areas {
     double deposited = 0, melted_base = 0;
 };
 
-// Area of the zone above the solidus, within the joint's true outline: zone cells whose eight neighbours
-// are in the zone count whole; every other cell position next to the zone (fused or not, solid or void:
-// the bead's true face need not follow the cells) counts the share of its 8×8 sample points that lie in
-// metal (mesh::material_at) with an interpolated peak at or above the solidus, each point booked to the
-// metal it lies in. Points of the bead are read from the bead's own cells where any is near (the molten
-// bead is weld metal up to the plate, which the plate's cooler cells must not pull below the solidus);
-// points of the plates from all cells around them, as the finite volumes see the bead–plate face. So the
-// deposited area is that of the bead itself, not of its staircase of cells.
+// Area of the zone above the solidus: full zone cells whose eight neighbours are in the zone count whole;
+// every other solid cell next to the zone (fused or not) counts the fused share of its metal. A cell holds
+// one metal: a plate's, over the whole cell, or the bead's, over its fill φ (mesh/bead_fill.hpp: the
+// bead's face cuts cells, and the weld cells hold all of the bead). The fused share is that of its 8×8
+// sample points in that metal (the bead's by its true outline, mesh::inside_bead) whose interpolated
+// peak reached the solidus; a weld cell so thin that no sample lands in the bead is fused or not as its
+// own peak says. Points of the bead are read from the bead's own cells where any is near (the molten bead
+// is weld metal up to the plate, which the plate's cooler cells must not pull below the solidus); points
+// of the plates from all cells around them, as the finite volumes see the bead–plate face. So the
+// deposited area of a fully fused bead is the bead's own area, not that of its cells' boxes.
 Areas fused_areas(const SliceField& f, const mesh::JointGeometry& joint, const std::vector<bool>& zone,
                   const Frame& frame, double solidus) {
     constexpr int samples = 8;
@@ -397,7 +399,8 @@ Areas fused_areas(const SliceField& f, const mesh::JointGeometry& joint, const s
         // Fused cells outside the zone belong to the other side or to a separate spot: not this bead's.
         if (s != none && !zone[s] && f.value(s) >= solidus) return;
         const double cell = grid.y.width(j) * grid.z.width(k);
-        bool interior = s != none && zone[s];
+        // A cut weld cell is only partly metal (mesh/bead_fill.hpp): it is sampled, never counted whole.
+        bool interior = s != none && zone[s] && cells.fill[s] == 1;
         for (int dk = -1; dk <= 1 && interior; ++dk)
             for (int dj = -1; dj <= 1 && interior; ++dj)
                 interior = in_zone(static_cast<std::ptrdiff_t>(j) + dj, static_cast<std::ptrdiff_t>(k) + dk);
@@ -405,18 +408,25 @@ Areas fused_areas(const SliceField& f, const mesh::JointGeometry& joint, const s
             (cells.tag[s] == mesh::Tag::weld ? areas.deposited : areas.melted_base) += cell;
             return;
         }
+        if (s == none) return;  // void: no metal (the bead's is all in weld cells)
+        const bool bead = cells.tag[s] == mesh::Tag::weld;
+        int in_metal = 0, fused = 0;
         for (int a = 0; a < samples; ++a)
             for (int b = 0; b < samples; ++b) {
                 const double y = grid.y.faces[j] + (a + 0.5) / samples * grid.y.width(j);
                 const double z = grid.z.faces[k] + (b + 0.5) / samples * grid.z.width(k);
-                const mesh::Tag metal = mesh::material_at(joint, y, z);
-                if (metal == mesh::Tag::empty || !frame.in_half(y)) continue;
-                const bool bead = metal == mesh::Tag::weld;
+                if (!frame.in_half(y) || (bead && !mesh::inside_bead(joint, y, z))) continue;
+                ++in_metal;
                 std::optional<double> v = bead ? f.sample_in(y, z, mesh::Tag::weld) : std::nullopt;
                 if (!v) v = f.sample(y, z);
-                if (!v || *v < solidus) continue;
-                (bead ? areas.deposited : areas.melted_base) += cell / (samples * samples);
+                if (v && *v >= solidus) ++fused;
             }
+        if (bead) {
+            const double share = in_metal > 0 ? static_cast<double>(fused) / in_metal : f.value(s) >= solidus;
+            areas.deposited += cells.fill[s] * cell * share;
+        } else {
+            areas.melted_base += cell * fused / (samples * samples);
+        }
     };
     for (std::uint32_t s = 0; s < cells.ns; ++s) {
         if (!zone[s]) continue;

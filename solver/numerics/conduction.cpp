@@ -17,11 +17,12 @@ ConductionOperator::ConductionOperator(const mesh::Grid& grid, const mesh::Solid
     : grid_(grid), cells_(cells), material_(material), losses_(losses) {
     dx_.resize(cells.nx);
     for (std::size_t i = 0; i < cells.nx; ++i) dx_[i] = grid.x.width(i);
-    dy_.resize(cells.ns), dz_.resize(cells.ns), end_area_.resize(cells.ns);
+    dy_.resize(cells.ns), dz_.resize(cells.ns), metal_area_.resize(cells.ns), scale_.resize(cells.ns);
     for (std::size_t s = 0; s < cells.ns; ++s) {
         dy_[s] = grid.y.width(cells.j[s]);
         dz_[s] = grid.z.width(cells.k[s]);
-        end_area_[s] = dy_[s] * dz_[s];
+        metal_area_[s] = cells.fill[s] * dy_[s] * dz_[s];
+        scale_[s] = cut_cell_scale(cells.fill[s], cells.face_fill[s]);
     }
     const std::size_t n = cells.size();
     k_.assign(n, 0), gx_.assign(n, 0), gy_.assign(n, 0), gz_.assign(n, 0), gloss_.assign(n, 0);
@@ -102,46 +103,61 @@ double ConductionOperator::lag_conductances(std::span<const double> T, Slices sl
 }
 
 // Cell (i, s): the conductances of its +x, +y and +z faces (each face is held by the cell on its
-// minus side) and of its free faces to the surroundings; returns its bound on ΣG/V.
+// minus side) and of its free faces to the surroundings; returns its bound on ΣG/V (stable_step()).
+// Face areas are those of the cell's metal (conduction.hpp, cut cells): φ·Δy·Δz along x; along y and z
+// the share the two cells' metal has in common, scaled by the smaller of their s.
 double ConductionOperator::lag_cell(std::size_t i, std::size_t s, double t_cell, double t_amb_k) {
     const std::size_t nx = cells_.nx, ns = cells_.ns, c = i * ns + s;
     const CellFaces f = cell_faces(dx_[i], dy_[s], dz_[s], k_[c]);
+    const double area_x = metal_area_[s], own_scale = scale_[s];
     const double h_eff = film_coefficient(losses_, units::kelvin(t_cell), t_amb_k);
     double free_conductance = 0;
     const auto lose = [&](double area, double half_own) {
         free_conductance += surface_conductance(area, h_eff, half_own);
     };
+    // Both x faces count in the bound, as each section face's metal does below.
+    double bound = 2 * area_x / f.half_x;
     // +x face, and the domain ends.
     if (i + 1 < nx && active_[c + ns]) {
-        gx_[c] = face_conductance(f.area_x, f.half_x, half_cell_resistance(dx_[i + 1], k_[c + ns]), 0.0);
+        gx_[c] = face_conductance(area_x, f.half_x, half_cell_resistance(dx_[i + 1], k_[c + ns]), 0.0);
     } else {
         gx_[c] = 0;
-        if (i + 1 < nx || !losses_.adiabatic[1]) lose(f.area_x, f.half_x);
+        if (i + 1 < nx || !losses_.adiabatic[1]) lose(area_x, f.half_x);
     }
-    if (i == 0 ? !losses_.adiabatic[0] : !active_[c - ns]) lose(f.area_x, f.half_x);
+    if (i == 0 ? !losses_.adiabatic[0] : !active_[c - ns]) lose(area_x, f.half_x);
     // Section faces: +y and +z hold the conductance; −y and −z only count free area.
     const auto& nb = cells_.neighbour[s];
+    const auto& share = cells_.face_fill[s];
     // Whether this cell's face on `side` lies on the domain boundary.
     const std::array<bool, 4> on_boundary{cells_.j[s] == 0, cells_.j[s] + 1 == grid_.y.cells(), cells_.k[s] == 0,
                                           cells_.k[s] + 1 == grid_.z.cells()};
     const auto face = [&](int side, double area, double half_own, const std::vector<double>& width) {
+        const double own = share[side] * area;  // this cell's metal on the face
+        bound += own_scale * own / half_own;
         const std::uint32_t m = nb[side];
         if (m == no_neighbour || !active_[i * ns + m]) {
-            if (!(on_boundary[side] && losses_.adiabatic[2 + side])) lose(area, half_own);
+            if (!(on_boundary[side] && losses_.adiabatic[2 + side])) lose(own_scale * own, half_own);
             return 0.0;
         }
+        // The neighbour's face on the other side is side ^ 1 (minus_y ↔ plus_y, minus_z ↔ plus_z).
+        const double common = std::min(share[side], cells_.face_fill[m][side ^ 1]) * area;
+        if (own > common) lose(own_scale * (own - common), half_own);
         const std::size_t other = i * ns + m;
         const bool contact = cells_.contact[s][side] && !(fused_[c] || fused_[other]);
         if (contact && losses_.contact_conductance <= 0) return 0.0;
-        return face_conductance(area, half_own, half_cell_resistance(width[m], k_[other]),
+        return std::min(own_scale, scale_[m]) *
+               face_conductance(common, half_own, half_cell_resistance(width[m], k_[other]),
                                 contact ? 1.0 / losses_.contact_conductance : 0.0);
     };
     gy_[c] = face(mesh::plus_y, f.area_y, f.half_y, dy_);
     gz_[c] = face(mesh::plus_z, f.area_z, f.half_z, dz_);
     face(mesh::minus_y, f.area_y, f.half_y, dy_);
     face(mesh::minus_z, f.area_z, f.half_z, dz_);
+    // The bead's own face runs obliquely through a cut cell: its half cell is taken as the mean of
+    // the y and z half cells.
+    if (cells_.free_face[s] > 0) lose(own_scale * cells_.free_face[s] * dx_[i], (f.half_y + f.half_z) / 2);
     gloss_[c] = free_conductance;
-    return conductance_bound(f, gloss_[c], dx_[i] * f.area_x);
+    return (bound + gloss_[c]) / (dx_[i] * area_x);
 }
 
 void ConductionOperator::temperatures(std::span<const double> H, std::span<double> T) const {

@@ -10,6 +10,19 @@
 // h_eff = h_c + εσ(T² + T_∞²)(T + T_∞) in kelvin; a free face's conductance to the surroundings
 // is G_s = A / (1/h_eff + Δ/(2k)), the surface film in series with the half cell below it.
 //
+// Cut cells (mesh/bead_fill.hpp): a weld cell holds metal over the share φ of its cross-section and
+// over a share m_f of each face. V_P = φ_P·Δx·Δy·Δz is its metal volume (its heat capacity, its birth
+// enthalpy and the source's heat scale with it), its x faces are φ_P·Δy·Δz (the bead is a prism along
+// x), and a section face between P and N conducts over A_f·min(m_P,f, m_N,f); the rest of a cell's own
+// metal on a face, and the bead's own face inside the cell (length ℓ_P), are free surface. A small cut
+// cell has much face for little metal, so its section conductances (and those of the faces it shares,
+// by the smaller scale of the two cells) are scaled by
+//     s_P = min(1, 2φ_P / max(m_−y + m_+y, m_−z + m_+z)):
+// then along each axis its Σ m·A/(Δ/2) over its metal volume is at most the 2·A/(Δ/2) over V of a full
+// cell of the same size, so cut cells never shorten the stable step, and no more is taken off than that
+// (a cell cut by a straight face filled at least half keeps s = 1; a corner triangle of legs a, b has
+// s = min(a, b), so it relaxes about as fast as a full cell). THEORY.md, "Cut cells".
+//
 // Conductivity, h_eff and the fused state are lagged: evaluated once a step in prepare(), from
 // the temperature at the start of the step, and held over its stages. Within a step the operator
 // is then linear in T, which is what the stability bounds of the integrators assume.
@@ -20,6 +33,7 @@
 #include "solver/physics/heat_source.hpp"
 #include "solver/physics/material.hpp"
 
+#include <algorithm>
 #include <array>
 #include <cstdint>
 #include <span>
@@ -41,9 +55,10 @@ inline constexpr double stefan_boltzmann = 5.670374419e-8;  // σ, W/(m2 K4), CO
 
 // Point kernels of prepare(): one cell or one face, no loops. Resistances are per unit area, m² K/W.
 
-// A cell's face areas and the resistances Δ/(2k) of its half cells, centre to face, along x, y, z.
+// A cell's whole y and z face areas (its x faces are its metal area, cut cells included) and the
+// resistances Δ/(2k) of its half cells, centre to face, along x, y, z.
 struct CellFaces {
-    double area_x, area_y, area_z;
+    double area_y, area_z;
     double half_x, half_y, half_z;
 };
 
@@ -51,8 +66,7 @@ struct CellFaces {
 inline double half_cell_resistance(double width, double k) { return width / (2 * k); }
 
 inline CellFaces cell_faces(double dx, double dy, double dz, double k) {
-    return {dy * dz, dx * dz, dx * dy,
-            half_cell_resistance(dx, k), half_cell_resistance(dy, k), half_cell_resistance(dz, k)};
+    return {dx * dz, dx * dy, half_cell_resistance(dx, k), half_cell_resistance(dy, k), half_cell_resistance(dz, k)};
 }
 
 // G_f = A_f / (Δ_P/(2k_P) + Δ_N/(2k_N) + R_c): the harmonic mean of k/Δ of the two cells, with the
@@ -74,10 +88,11 @@ inline double surface_conductance(double area, double h_eff, double half_own) {
     return h_eff > 0 ? area / (1.0 / h_eff + half_own) : 0.0;
 }
 
-// Bound on a cell's ΣG / V, which limits forward Euler (dt_e = ρc_min / max ΣG/V): no face conducts
-// more than the cell's own half cell, A/(Δ/(2k)), so ΣG ≤ 2 Σ_x,y,z A/(Δ/(2k)) + G_loss.
-inline double conductance_bound(const CellFaces& f, double loss, double volume) {
-    return (2 * (f.area_y / f.half_y + f.area_z / f.half_z) + 2 * f.area_x / f.half_x + loss) / volume;
+// s_P = min(1, 2φ_P / max(m_−y + m_+y, m_−z + m_+z)): the scale of the section conductances of a cut
+// cell filled by φ_P with face shares m (SectionSide order; see above).
+inline double cut_cell_scale(double fill, const std::array<double, 4>& faces) {
+    const double widest = std::max(faces[mesh::minus_y] + faces[mesh::plus_y], faces[mesh::minus_z] + faces[mesh::plus_z]);
+    return widest > 2 * fill ? 2 * fill / widest : 1.0;
 }
 
 // A contiguous range of cell indices [begin, end) that a step must update; cells outside it are
@@ -112,11 +127,14 @@ public:
     double for_each_rate(std::span<const double> T, Sink&& sink) const;
     std::span<const CellPower> source() const { return source_; }
 
-    // Forward-Euler limit of the current (lagged) operator: min_P V_P ρc_min / Σ G.
+    // Forward-Euler limit of the current (lagged) operator: min_P V_P ρc_min / Σ G, with ΣG bounded
+    // by counting every face's metal, A/(Δ/(2k)) each (no face conducts more than the half cell
+    // behind it), plus the surface loss.
     double stable_step() const { return stable_step_; }
     CellRange range() const { return range_; }
 
-    double volume(std::size_t cell) const { return dx_[cell / cells_.ns] * dy_[cell % cells_.ns] * dz_[cell % cells_.ns]; }
+    // The cell's metal volume φ·Δx·Δy·Δz [m³]: what its enthalpy density H is per.
+    double volume(std::size_t cell) const { return dx_[cell / cells_.ns] * metal_area_[cell % cells_.ns]; }
     const mesh::SolidCells& cells() const { return cells_; }
     const Material& material() const { return material_; }
 
@@ -136,7 +154,8 @@ private:
     const Material& material_;
     SurfaceLosses losses_;
     std::vector<double> dx_, dy_, dz_;           // widths per slice and per section cell
-    std::vector<double> end_area_;               // per section cell: dy·dz (faces at x = 0 and x = L)
+    std::vector<double> metal_area_;             // per section cell: φ·dy·dz (its x faces, and V/dx)
+    std::vector<double> scale_;                  // per section cell: s = cut_cell_scale(φ, m)
     std::vector<double> k_, gx_, gy_, gz_, gloss_;  // per cell: conductivity, + face conductances, h_eff·A_free
     std::vector<std::uint8_t> fused_;
     std::span<const std::uint8_t> active_;
@@ -179,7 +198,7 @@ double ConductionOperator::for_each_rate(std::span<const double> T, Sink&& sink)
                 const std::size_t m = base + nb[mesh::minus_z];
                 flow += gz_[m] * (T[m] - tc);
             }
-            sink(c, flow * inv_dx / end_area_[s], true);
+            sink(c, flow * inv_dx / metal_area_[s], true);
         }
     }
     return lost;

@@ -254,7 +254,9 @@ double DoubleEllipsoid::deposit(const mesh::Grid& grid, const mesh::SolidCells& 
             for (std::size_t i = range[0].first; i < range[0].end; ++i) {
                 const std::size_t cell = cells.index(i, s);
                 if (active[cell] == 0) continue;
-                const double watts = cell_integral(sample_axis(grid.x, i, 0, o[0], path_, min_semi_axis_), ys, zs);
+                // A cut weld cell takes the share φ of the box's integral that its metal fills.
+                const double watts =
+                    cells.fill[s] * cell_integral(sample_axis(grid.x, i, 0, o[0], path_, min_semi_axis_), ys, zs);
                 if (watts <= 0.0) continue;  // underflow far out in the tail
                 out.push_back({static_cast<std::uint32_t>(cell), watts});
                 raw += watts;

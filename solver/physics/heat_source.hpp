@@ -90,7 +90,9 @@ public:
     // `out` empty when the arc is off or touches no active cell (the caller should warn in the latter case).
     //
     // Each cell's integral uses tensor Gauss–Legendre points, n = ceil(3h/s_min) per axis (h the cell
-    // width, s_min the smallest semi-axis, n <= 8), so the sub-spacing is about s_min/3 or less. Only cells
+    // width, s_min the smallest semi-axis, n <= 8), so the sub-spacing is about s_min/3 or less. A cut
+    // weld cell (mesh/bead_fill.hpp) takes its fill φ of its box's integral: the share of q that falls
+    // in its metal, to first order in the cell size, and continuous as the bead's face moves. Only cells
     // overlapping the cut-off box (2 semi-axes in the local frame, where q has fallen to e^(-12) of its
     // peak) are visited. `active` has one flag per solid cell (nonzero = metal present); `out` is cleared
     // and refilled, keeping its capacity, so steady use does not allocate. Throws std::invalid_argument
