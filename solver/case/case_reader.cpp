@@ -419,9 +419,8 @@ void lay_bead(Case& c, CaseDocument& doc) {
     } else if (!d) {
         b.basis = "as asked, for the wire's deposit is not known: " + missing_wire_data(c.procedure);
     } else {
-        b.basis = format_text("from the wire: %.1f mm2 deposited per pass = wire feed x wire section x deposition "
-                              "efficiency %.2f / travel speed",
-                              d->area * 1e6, d->efficiency);
+        b.basis = format_text("from the wire: wire feed x wire section x deposition efficiency %.2f / travel speed",
+                              d->efficiency);
     }
     if (!b.from_wire) return;
     const mesh::Fillet laid = scaled_fillet(b.asked, d->area);
