@@ -426,7 +426,7 @@ void lay_bead(Case& c, CaseDocument& doc) {
     const mesh::Fillet laid = scaled_fillet(b.asked, d->area);
     for (const auto& m : misfits(c.joint, laid)) {
         doc.error("procedure.wire_feed",
-                  format_text("the wire deposits %.1f mm2, a %s fillet of the asked shape, which does not fit (%s leg: ",
+                  format_text("the wire deposits %.1f mm2, a fillet of %s in the asked shape, which does not fit (%s leg: ",
                               d->area * 1e6, legs_text(laid).c_str(), m.key == "leg_flange" ? "flange" : "web") +
                       m.message + "); lower the wire feed or raise the travel speed, or set bead.laid = \"as_asked\"");
     }

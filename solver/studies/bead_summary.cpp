@@ -2,6 +2,7 @@
 
 #include "solver/core/text.hpp"
 
+#include <cctype>
 #include <cmath>
 #include <tuple>
 
@@ -9,16 +10,23 @@ namespace heatbead {
 
 namespace {
 
+// "a" or "an" before a size read aloud: "an 8.3 mm", "an 11 mm", "an 18 mm".
+std::string a_or_an(const std::string& size) {
+    const bool eleven_or_eighteen = size.size() >= 2 && size[0] == '1' && (size[1] == '1' || size[1] == '8') &&
+                                    (size.size() == 2 || !std::isdigit(static_cast<unsigned char>(size[2])));
+    return size.starts_with('8') || eleven_or_eighteen ? "an " + size : "a " + size;
+}
+
 // The warning of the report, once its figures are known.
 std::string size_warning(const Case& c, const BeadReport& b) {
     if (!b.deposit || !(std::abs(b.size_ratio - 1) > size_limit)) return "";
     const mesh::Fillet wire = scaled_fillet(b.asked, b.deposit->area);
     const std::string areas = format_text("%.1f mm2 deposited, %.1f mm2 asked", b.deposit->area * 1e6, b.asked_area * 1e6);
     if (c.bead.from_wire) {
-        return "the wire lays a " + legs_text(wire) + " fillet; " + legs_text(b.asked) + " was asked: " +
+        return "the wire lays " + a_or_an(legs_text(wire)) + " fillet; " + legs_text(b.asked) + " was asked: " +
                (b.size_ratio < 1 ? "undersized" : "oversized") + " (" + areas + ")";
     }
-    return "the wire deposits a " + legs_text(wire) + " fillet, but the " + legs_text(b.asked) +
+    return "the wire deposits " + a_or_an(legs_text(wire)) + " fillet, but the " + legs_text(b.asked) +
            " asked is laid as asked (" + areas + "): check the wire feed, the travel speed and the legs";
 }
 
