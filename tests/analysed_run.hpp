@@ -1,35 +1,19 @@
-// A case run and analysed the way `heatbead run` does it (solver/app/run_command.cpp), for tests
-// that check what a whole run reports. The simulation keeps references to the grid and material,
-// so they live here beside it.
+// A whole run (tests/whole_run.hpp) analysed the way `heatbead run` does it
+// (solver/app/run_command.cpp), for tests that check what a whole run reports.
 #pragma once
 
-#include "mesh/grid.hpp"
 #include "post/summary.hpp"
 #include "solver/studies/run_analysis.hpp"
-#include "solver/studies/run_setup.hpp"
-
-#include <atomic>
+#include "tests/whole_run.hpp"
 
 namespace heatbead::testing {
 
-struct AnalysedRun {
-    Case c;
-    mesh::Grid grid;
-    Material material;
-    PreparedRun run;
-    RunResult result;
+struct AnalysedRun : WholeRun {
     RunAnalysis analysis;
     post::Summary summary;
 
-    explicit AnalysedRun(Case case_)
-        : c(std::move(case_)),
-          grid(mesh::build_grid(c.joint, c.grid)),
-          material(make_material(c.base)),
-          run(prepare_run(c, grid, material)) {
-        const std::atomic<bool> never{false};
-        result = run.sim->run(never);
-        if (!result.completed) return;  // the test says so: its REQUIRE on result.completed fails
-        analysis = analyse_run(c, run);
+    explicit AnalysedRun(Case case_) : WholeRun(std::move(case_)) {
+        analysis = analyse_run(c, prepared);
         summary = make_summary(c, result, analysis, 0);
     }
 };
