@@ -80,6 +80,25 @@ double fillet_area(double leg_flange, double leg_web, FaceShape face, double con
     return triangle + face_sign(face) * segment;
 }
 
+Fillet fillet_of(const JointGeometry& joint) {
+    return {joint.leg_flange, joint.leg_web, joint.face, joint.convexity};
+}
+
+JointGeometry with_fillet(JointGeometry joint, const Fillet& fillet) {
+    joint.leg_flange = fillet.leg_flange, joint.leg_web = fillet.leg_web;
+    joint.face = fillet.face, joint.convexity = fillet.convexity;
+    return joint;
+}
+
+double fillet_area(const Fillet& f) { return fillet_area(f.leg_flange, f.leg_web, f.face, f.convexity); }
+
+double design_throat(const Fillet& f) {
+    const double lf = f.leg_flange, lw = f.leg_web, chord = std::hypot(lf, lw);
+    const double u = lf * lf / (chord * chord);
+    const double dip = f.face == FaceShape::concave ? 4 * f.convexity * u * (1 - u) : 0.0;
+    return lf * lw / chord - dip;
+}
+
 bool inside_bead(const JointGeometry& joint, double y, double z) {
     if (inside_own_bead(joint, y - joint.web_face(1), z)) return true;
     return joint.sides == 2 && inside_own_bead(joint, joint.web_face(-1) - y, z);

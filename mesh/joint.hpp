@@ -61,6 +61,22 @@ void validate(const JointGeometry& joint);
 // -1 concave, 0 flat: the triangle between the legs plus or minus a parabolic segment (2/3 chord × height).
 double fillet_area(double leg_flange, double leg_web, FaceShape face, double convexity);
 
+// One bead's cross-section on its own: its legs from the root corner, face shape and convexity (as in
+// JointGeometry). A case keeps the fillet it asks for apart from the one it lays.
+struct Fillet {
+    double leg_flange = 0, leg_web = 0;
+    FaceShape face = FaceShape::flat;
+    double convexity = 0;
+};
+Fillet fillet_of(const JointGeometry& joint);
+// The joint with `fillet` as its bead (on every side).
+JointGeometry with_fillet(JointGeometry joint, const Fillet& fillet);
+// fillet_area of the fillet's legs, face and convexity.
+double fillet_area(const Fillet& fillet);
+// Root corner to the face, perpendicular to the chord between the toes: l_f·l_w/|d|, less the dip of a
+// concave face where that perpendicular meets the chord (at u = l_f²/|d|², 4c·u(1−u) inside it).
+double design_throat(const Fillet& fillet);
+
 // True where (y, z) lies in a bead of either side. Assumes a valid joint.
 bool inside_bead(const JointGeometry& joint, double y, double z);
 

@@ -344,15 +344,6 @@ NormalLine normal_line(const SliceField& f, const mesh::JointGeometry& joint, Po
     return line;
 }
 
-double design_throat(const mesh::JointGeometry& joint) {
-    const double lf = joint.leg_flange, lw = joint.leg_web, chord = std::hypot(lf, lw);
-    // The perpendicular from the root meets the chord at u = l_f²/|d|², where a concave face lies
-    // 4c·u(1−u) inside the chord.
-    const double u = lf * lf / (chord * chord);
-    const double dip = joint.face == mesh::FaceShape::concave ? 4 * joint.convexity * u * (1 - u) : 0.0;
-    return lf * lw / chord - dip;
-}
-
 // Distance from the root corner along the bisector (direction (side, 1)/√2) to the bead face. The bead is
 // star-shaped from its root corner, so the inside of the bead on this ray is one interval from 0.
 double face_along_bisector(const mesh::JointGeometry& joint, const Frame& frame) {
@@ -466,7 +457,7 @@ CrossSection measure_cross_section(const mesh::JointGeometry& joint, const mesh:
     cs.fusion_line = slice_isolines(f, levels.solidus);
     cs.ac1_line = slice_isolines(f, levels.ac1);
     cs.ac3_line = slice_isolines(f, levels.ac3);
-    cs.design_throat = design_throat(joint);
+    cs.design_throat = mesh::design_throat(mesh::fillet_of(joint));
     // The probe lines: under the flange leg's middle and its toe, straight down; across the web at the
     // middle of the web leg (above the root gap) and at its toe, straight in.
     const double into_web = joint.sides == 2 ? joint.web_thickness / 2 : joint.web_thickness;

@@ -54,7 +54,7 @@ Point run_point(const Case& c, double legs) {
     p.legs = legs;
     if (!r.result.completed) return p;  // the caller's REQUIRE on the summary says so
     p.bead_area = mesh::fillet_area(c.joint.leg_flange, c.joint.leg_web, c.joint.face, c.joint.convexity);
-    const mesh::SolidCells& cells = r.run.sim->cells();
+    const mesh::SolidCells& cells = r.prepared.sim->cells();
     for (std::size_t s = 0; s < cells.ns; ++s) {
         if (cells.tag[s] == mesh::Tag::weld)
             p.laid_area += cells.fill[s] * r.grid.y.width(cells.j[s]) * r.grid.z.width(cells.k[s]);

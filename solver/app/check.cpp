@@ -35,6 +35,31 @@ std::string_view face_word(mesh::FaceShape f) {
 
 nlohmann::json q(double value, const char* unit) { return {{"value", value}, {"unit", unit}}; }
 
+// "legs 9.5 mm (flange) x 9.5 mm (web), convex face 0.8 mm; area 45.4 mm2, design throat 6.72 mm"
+std::string fillet_text(const mesh::Fillet& f, double area, double throat) {
+    const std::string face = f.face == mesh::FaceShape::flat
+                                 ? std::string("flat face")
+                                 : format_text("%s face %.1f mm", std::string(face_word(f.face)).c_str(), f.convexity * 1e3);
+    return format_text("legs %.1f mm (flange) x %.1f mm (web), %s; area %.1f mm2, design throat %.2f mm",
+                       f.leg_flange * 1e3, f.leg_web * 1e3, face.c_str(), area * 1e6, throat * 1e3);
+}
+
+nlohmann::json fillet_json(const mesh::Fillet& f, double area, double throat) {
+    return {{"leg_flange", q(f.leg_flange * 1e3, "mm")},
+            {"leg_web", q(f.leg_web * 1e3, "mm")},
+            {"face", face_word(f.face)},
+            {"convexity", q(f.convexity * 1e3, "mm")},
+            {"area", q(area * 1e6, "mm2")},
+            {"design_throat", q(throat * 1e3, "mm")}};
+}
+
+// The case's warnings and the bead's.
+std::vector<std::string> check_warnings(const CheckReport& r) {
+    std::vector<std::string> w = r.c->warnings;
+    if (!r.bead.warning.empty()) w.push_back(r.bead.warning);
+    return w;
+}
+
 }  // namespace
 
 CheckReport make_check_report(const Case& c) {
@@ -45,9 +70,7 @@ CheckReport make_check_report(const Case& c) {
     r.arc_energy = arc_energy(p);
     r.heat_input = heat_input(p);
     r.net_power = net_power(p);
-    r.bead_area = j.sides * mesh::fillet_area(j.leg_flange, j.leg_web, j.face, j.convexity);
-    r.design_throat = j.leg_flange * j.leg_web / std::hypot(j.leg_flange, j.leg_web);
-    r.deposition = deposition(weld_setup(c));
+    r.bead = bead_report(c);
     const mesh::Grid grid = mesh::build_grid(j, c.grid);
     r.nx = grid.x.cells(), r.ny = grid.y.cells(), r.nz = grid.z.cells();
     r.cells = grid.cells(), r.solid_cells = grid.solid_cells(), r.weld_cells = grid.weld_cells();
@@ -70,9 +93,10 @@ std::string to_text(const CheckReport& r) {
     out += line("Joint       tee: flange %.1f x %.0f mm, web %.1f x %.0f mm, weld %.0f mm, %s, root gap %.1f mm",
                 j.flange_thickness * 1e3, j.flange_width * 1e3, j.web_thickness * 1e3, j.web_height * 1e3,
                 j.weld_length * 1e3, j.sides == 2 ? "both sides" : "one side", j.root_gap * 1e3);
-    out += line("Bead        legs %.1f mm (flange) x %.1f mm (web), %s face; area %.1f mm2, design throat %.2f mm",
-                j.leg_flange * 1e3, j.leg_web * 1e3, std::string(face_word(j.face)).c_str(), r.bead_area * 1e6,
-                r.design_throat * 1e3);
+    const auto& b = r.bead;
+    out += "Bead asked  " + fillet_text(b.asked, b.asked_area, b.asked_throat) + "\n";
+    out += "Bead laid   " + fillet_text(b.laid, b.laid_area, b.laid_throat) + "\n";
+    out += "            " + b.basis + "\n";
     std::string wire = p.wire_diameter > 0 ? format_text("%.1f mm wire", p.wire_diameter * 1e3) : "no wire data";
     if (p.wire_feed_speed) wire += format_text(" at %.1f m/min", *p.wire_feed_speed * 60);
     out += line("Procedure   %s %s, %s, %.0f A, %.1f V, %.2f mm/s, %s", std::string(to_string(p.process)).c_str(),
@@ -81,12 +105,13 @@ std::string to_text(const CheckReport& r) {
     out += line("Heat input  %.3f kJ/mm = efficiency %.2f x arc energy %.3f kJ/mm (EN 1011-1); net power %.0f W",
                 r.heat_input * 1e-6, r.net_power / electrical_power(p), r.arc_energy * 1e-6, r.net_power);
     out += line("            efficiency: %s; power: %s", p.arc_efficiency_source.c_str(), p.power_basis.c_str());
-    if (r.deposition) {
-        const auto& d = *r.deposition;
-        out += line("Deposition  %.1f mm2 per length = equal-leg fillet %.1f mm (asked %.1f mm, %+.0f %%)",
-                    d.area * 1e6, d.equal_leg * 1e3, d.asked_leg * 1e3, d.difference * 100);
+    if (const auto& d = b.deposit) {
+        out += line("Deposition  %.1f mm2 per pass = deposition efficiency %.2f x wire fed %.1f mm2 per length; "
+                    "the wire's legs %+.0f %% of the asked",
+                    d->area * 1e6, d->efficiency, d->wire_area * 1e6, (b.size_ratio - 1) * 100);
+        out += line("            deposition efficiency: %s", p.deposition_efficiency_source.c_str());
     } else {
-        out += "Deposition  not computed: needs wire_feed and wire_diameter\n";
+        out += "Deposition  not computed: " + b.no_deposit + "\n";
     }
     out += line("Source      Goldak a %.1f, b %.1f, c_f %.1f, c_r %.1f mm (%s)", c.source.half_width * 1e3,
                 c.source.depth * 1e3, c.source.front_length * 1e3, c.source.rear_length * 1e3, c.source.rule.c_str());
@@ -117,9 +142,9 @@ std::string to_text(const CheckReport& r) {
         out += line("Preheat     EN 1011-2 method B: %.0f degC%s (heatbead preheat finds it from the HAZ)", sp->formula,
                     sp->outside_validity.empty() ? "" : ", inputs outside its validity");
     }
-    if (!c.warnings.empty()) {
+    if (const auto warnings = check_warnings(r); !warnings.empty()) {
         out += "Warnings\n";
-        for (const auto& w : c.warnings) out += "  - " + w + "\n";
+        for (const auto& w : warnings) out += "  - " + w + "\n";
     }
     out += line("Caution     %s", post::planning_caution);
     return out;
@@ -135,13 +160,18 @@ nlohmann::json to_json(const CheckReport& r) {
     out["net_power"] = q(r.net_power, "W");
     out["arc_efficiency"] = {{"value", r.net_power / electrical_power(p)}, {"source", p.arc_efficiency_source}};
     out["electrical_power"] = {{"value", electrical_power(p)}, {"unit", "W"}, {"basis", p.power_basis}};
-    out["bead_area"] = q(r.bead_area * 1e6, "mm2");
-    out["design_throat"] = q(r.design_throat * 1e3, "mm");
-    if (r.deposition) {
-        out["deposition"] = {{"area", q(r.deposition->area * 1e6, "mm2")},
-                             {"equal_leg", q(r.deposition->equal_leg * 1e3, "mm")},
-                             {"asked_leg", q(r.deposition->asked_leg * 1e3, "mm")},
-                             {"difference", q(r.deposition->difference * 100, "%")}};
+    const auto& b = r.bead;
+    out["bead"] = {{"asked", fillet_json(b.asked, b.asked_area, b.asked_throat)},
+                   {"laid", fillet_json(b.laid, b.laid_area, b.laid_throat)},
+                   {"laid_from_wire", c.bead.from_wire},
+                   {"basis", b.basis}};
+    if (const auto& d = b.deposit) {
+        out["deposition"] = {{"area", q(d->area * 1e6, "mm2")},
+                             {"wire_area", q(d->wire_area * 1e6, "mm2")},
+                             {"efficiency", {{"value", d->efficiency}, {"source", p.deposition_efficiency_source}}},
+                             {"legs_against_asked", q((b.size_ratio - 1) * 100, "%")}};
+    } else {
+        out["deposition"] = {{"not_computed", b.no_deposit}};
     }
     out["source"] = {{"half_width", q(c.source.half_width * 1e3, "mm")},
                      {"depth", q(c.source.depth * 1e3, "mm")},
@@ -180,7 +210,7 @@ nlohmann::json to_json(const CheckReport& r) {
                                    {"preheat", q(sp->formula, "degC")},
                                    {"outside_validity", sp->outside_validity}};
     }
-    out["warnings"] = c.warnings;
+    out["warnings"] = check_warnings(r);
     out["caution"] = post::planning_caution;
     return out;
 }

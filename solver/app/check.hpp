@@ -6,6 +6,7 @@
 #include "solver/weldability/en1011_preheat.hpp"
 #include "solver/physics/procedure.hpp"
 #include "solver/numerics/run_estimate.hpp"
+#include "solver/studies/bead_summary.hpp"
 #include "solver/studies/run_setup.hpp"
 
 #include <nlohmann/json.hpp>
@@ -20,9 +21,7 @@ struct CheckReport {
     double arc_energy = 0;   // J/m
     double heat_input = 0;   // J/m
     double net_power = 0;    // W
-    double bead_area = 0;    // m² of all beads asked for
-    double design_throat = 0;  // m, root to the toe-to-toe line
-    std::optional<Deposition> deposition;
+    BeadReport bead;         // asked against laid, and the wire's deposit
     // Grid
     std::size_t nx = 0, ny = 0, nz = 0, cells = 0, solid_cells = 0, weld_cells = 0;
     double h_min = 0, h_max = 0, max_ratio = 0;

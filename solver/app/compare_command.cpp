@@ -73,7 +73,7 @@ Figures figures_of(const Outcome& o) {
     const auto& c = *o.c;
     Figures f{};
     f.heat_input = heat_input(c.procedure) * 1e-6;
-    const auto d = deposition(weld_setup(c));
+    const auto d = deposition(c.procedure);
     f.deposited = d ? d->area * 1e6 : nan;
     f.leg_flange = x.fused_leg_flange * 1e3, f.leg_web = x.fused_leg_web * 1e3;
     f.pen_flange = x.penetration_flange * 1e3, f.pen_web = x.penetration_web * 1e3;
@@ -129,12 +129,16 @@ Rows table(const std::vector<Outcome>& outcomes) {
                ", " + or_na("%.0f A", p.current) + ", " + or_na("%.1f V", p.voltage) + ", " + or_na("%.1f mm/s", p.travel_speed * 1e3);
     });
     row("heat input", [](const Outcome&, const Figures& f) { return or_na("%.3f kJ/mm", f.heat_input); });
-    row("deposited area", [](const Outcome&, const Figures& f) {
+    row("deposited area", [](const Outcome& o, const Figures& f) {
         return std::isfinite(f.deposited) ? format_text("%.1f mm2", f.deposited)
-                                          : std::string("not computed (needs the wire feed and the wire diameter)");
+                                          : "not computed (" + missing_wire_data(o.c->procedure) + ")";
     });
-    row("legs asked (flange x web)", [](const Outcome& o, const Figures&) {
-        return or_na("%.1f", o.c->joint.leg_flange * 1e3) + " x " + or_na("%.1f mm", o.c->joint.leg_web * 1e3);
+    const auto legs = [](const mesh::Fillet& b) {
+        return or_na("%.1f", b.leg_flange * 1e3) + " x " + or_na("%.1f mm", b.leg_web * 1e3);
+    };
+    row("legs asked (flange x web)", [&](const Outcome& o, const Figures&) { return legs(o.c->bead.asked); });
+    row("legs laid (flange x web)", [&](const Outcome& o, const Figures&) {
+        return legs(mesh::fillet_of(o.c->joint)) + (o.c->bead.from_wire ? " (from the wire)" : " (as asked)");
     });
     row("fused legs (flange x web)", [](const Outcome&, const Figures& f) { return or_na("%.1f", f.leg_flange) + " x " + or_na("%.1f mm", f.leg_web); });
     row("penetration into flange", [](const Outcome&, const Figures& f) { return or_na("%.2f mm", f.pen_flange); });
@@ -282,6 +286,11 @@ nlohmann::json to_json(const std::vector<Outcome>& outcomes, const Rows& rows, c
                               {"case", o.c->file},
                               {"heat_input_kJ_per_mm", num(f.heat_input)},
                               {"deposited_area_mm2", num(f.deposited)},
+                              {"leg_flange_asked_mm", o.c->bead.asked.leg_flange * 1e3},
+                              {"leg_web_asked_mm", o.c->bead.asked.leg_web * 1e3},
+                              {"leg_flange_laid_mm", o.c->joint.leg_flange * 1e3},
+                              {"leg_web_laid_mm", o.c->joint.leg_web * 1e3},
+                              {"bead_laid_from_wire", o.c->bead.from_wire},
                               {"fused_leg_flange_mm", num(f.leg_flange)},
                               {"fused_leg_web_mm", num(f.leg_web)},
                               {"penetration_flange_mm", num(f.pen_flange)},

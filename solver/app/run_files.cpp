@@ -73,8 +73,8 @@ post::ReportInput make_report_input(const Case& c, const PreparedRun& run, const
     row("preheat", "%.0f degC", c.temperatures.preheat);
     row("flange thickness", "%.1f mm", j.flange_thickness * 1e3);
     row("web thickness", "%.1f mm", j.web_thickness * 1e3);
-    row("legs asked (flange)", "%.1f mm", j.leg_flange * 1e3);
-    row("legs asked (web)", "%.1f mm", j.leg_web * 1e3);
+    row("legs asked (flange)", "%.1f mm", c.bead.asked.leg_flange * 1e3);
+    row("legs asked (web)", "%.1f mm", c.bead.asked.leg_web * 1e3);
     for (const auto& item : summary.items()) r.results.emplace_back(item.group + ": " + item.label, post::display(item));
 
     r.plates = plate_outlines(j);

@@ -77,9 +77,24 @@ struct PreheatSearchSpec {
     double resolution = 5;                  // K
 };
 
+// Which bead a run lays: the one the wire deposits (mass conservation, keeping the asked legs'
+// ratio and face), or the asked one exactly, for a bead that was measured.
+enum class BeadLaying { from_wire, as_asked };
+inline constexpr std::array<std::string_view, 2> bead_laying_names{"from_wire", "as_asked"};
+
+// The bead a case asks for ([bead]): the procedure's target, kept apart from the bead laid.
+struct BeadSpec {
+    mesh::Fillet asked;
+    BeadLaying laying = BeadLaying::from_wire;  // as chosen (bead.laid)
+    bool from_wire = false;  // the wire's bead was laid: chosen, and the wire feed and diameter known
+    std::string basis;       // in words, why the bead laid is the one it is
+};
+
 struct Case {
     std::string file;  // path the case was read from
+    // The plates and the bead laid: what the grid, the source rule and the analysis use.
     mesh::JointGeometry joint;
+    BeadSpec bead;
     mesh::GridSettings grid;
     double memory_limit = 0;  // bytes
     MaterialSpec base, filler;

@@ -59,6 +59,30 @@ void read_joint(Case& c, CaseDocument& doc) {
     }
 }
 
+// Where a fillet does not fit on the joint's plates: the [bead] key at fault and what is wrong.
+struct Misfit {
+    std::string_view key;
+    std::string message;
+};
+
+std::vector<Misfit> misfits(const mesh::JointGeometry& j, const mesh::Fillet& f) {
+    std::vector<Misfit> out;
+    // Legs must fit on the plates they sit on: the flange leg between the web face and the
+    // flange edge, the web leg within the web height.
+    for (int side = 1; side <= j.sides; ++side) {
+        const double room = j.flange_width / 2 - (side == 1 ? j.web_offset : -j.web_offset) - j.web_thickness / 2;
+        if (f.leg_flange > room) {
+            out.push_back({"leg_flange", "the leg runs off the flange: only " + mm_text(room) +
+                                             " of flange beside the web face on side " + std::to_string(side)});
+        }
+    }
+    if (f.leg_web <= j.root_gap) {
+        out.push_back({"leg_web", "must be longer than the root gap " + mm_text(j.root_gap) + " to reach the web"});
+    }
+    if (f.leg_web > j.web_height) out.push_back({"leg_web", "larger than the web height " + mm_text(j.web_height)});
+    return out;
+}
+
 void read_bead(Case& c, CaseDocument& doc) {
     auto s = doc.section("bead", true);
     auto& j = c.joint;
@@ -66,22 +90,10 @@ void read_bead(Case& c, CaseDocument& doc) {
     j.leg_web = s.quantity("leg_web", Dimension::length, "mm", j.leg_flange, Bounds::positive());
     j.face = enum_of<mesh::FaceShape>(face_names, s.choice("face", face_names, "flat"));
     j.convexity = s.quantity("convexity", Dimension::length, "mm", 0.0, Bounds::non_negative());
-
-    // Legs must fit on the plates they sit on: the flange leg between the web face and the
-    // flange edge, the web leg within the web height.
-    for (int side = 1; side <= j.sides; ++side) {
-        const double room = j.flange_width / 2 - (side == 1 ? j.web_offset : -j.web_offset) - j.web_thickness / 2;
-        if (j.leg_flange > room) {
-            s.error("leg_flange", "the leg runs off the flange: only " + mm_text(room) +
-                                      " of flange beside the web face on side " + std::to_string(side));
-        }
-    }
-    if (j.leg_web <= j.root_gap) {
-        s.error("leg_web", "must be longer than the root gap " + mm_text(j.root_gap) + " to reach the web");
-    }
-    if (j.leg_web > j.web_height) {
-        s.error("leg_web", "larger than the web height " + mm_text(j.web_height));
-    }
+    c.bead.laying = enum_of<BeadLaying>(bead_laying_names, s.choice("laid", bead_laying_names, "from_wire"));
+    // The joint holds the asked bead until the bead laid is known (lay_bead).
+    c.bead.asked = mesh::fillet_of(j);
+    for (const auto& m : misfits(j, c.bead.asked)) s.error(m.key, m.message);
     if (j.face == mesh::FaceShape::flat && j.convexity > 0) {
         s.error("convexity", "a flat face has no convexity; set face = \"convex\" or \"concave\", or convexity = 0");
     } else if (j.face != mesh::FaceShape::flat && !(j.convexity > 0)) {
@@ -192,6 +204,22 @@ void read_waveform_power(Section& procedure, ProcedureSpec& p, const std::string
     }
 }
 
+// The share of the wire that stays in the bead: given, or the process and transfer mode's default.
+void read_deposition_efficiency(Section& s, ProcedureSpec& p) {
+    constexpr std::string_view key = "deposition_efficiency";
+    const Bounds share{0, 1, true, false};
+    if (p.process == Process::smaw) {
+        if (s.has(key)) {
+            s.number(key, std::nullopt, share);
+            s.error(key, "manual metal arc has no wire feed; remove the key");
+        }
+        return;
+    }
+    const auto fallback = default_deposition_efficiency(p.process, p.transfer);
+    p.deposition_efficiency = s.number(key, s.has(key) ? std::nullopt : std::optional(fallback.value), share);
+    p.deposition_efficiency_source = s.has(key) ? "given in the case" : std::string(fallback.source);
+}
+
 void read_procedure(Case& c, CaseDocument& doc) {
     auto s = doc.section("procedure", true);
     auto& p = c.procedure;
@@ -245,6 +273,11 @@ void read_procedure(Case& c, CaseDocument& doc) {
         p.arc_efficiency_source = std::string(fallback.source);
     }
     p.net_power = s.optional_quantity("net_power", Dimension::power, "W", Bounds::positive());
+    if (p.net_power) {
+        p.arc_efficiency_source = std::string("derived from the given net power (net power / electrical power)") +
+                                  (s.has("arc_efficiency") ? "; the arc_efficiency given is not used" : "");
+    }
+    read_deposition_efficiency(s, p);
     p.interpass_wait = s.optional_quantity("interpass_wait", Dimension::time, "s", Bounds::non_negative());
     if (p.interpass_wait && c.joint.sides == 1) {
         s.error("interpass_wait", "applies to a second pass; this joint has sides = 1");
@@ -354,13 +387,6 @@ void read_output(Case& c, CaseDocument& doc) {
     o.files = s.choice_list("files", output_files, {"hdf5", "summary"});
     o.station = s.quantity("station", Dimension::length, "mm", j.weld_length / 2, Bounds{0, j.weld_length, true, true});
     o.probes = s.points("probes", Dimension::length, "mm");
-    for (std::size_t i = 0; i < o.probes.size(); ++i) {
-        const auto& [x, y, z] = o.probes[i];
-        if (x < 0 || x > j.weld_length || mesh::material_at(j, y, z) == mesh::Tag::empty) {
-            s.error("probes", "point " + std::to_string(i + 1) + " (" + mm_text(x) + ", " + mm_text(y) + ", " +
-                                  mm_text(z) + ") is not inside the plates or the bead");
-        }
-    }
     o.snapshot_interval = s.quantity("snapshot_interval", Dimension::time, "s", 1.0, Bounds::positive());
 }
 
@@ -379,6 +405,44 @@ void read_preheat_search(Case& c, CaseDocument& doc) {
     p.resolution = s.number("resolution", 5.0, Bounds::closed(1, 50));
     if (std::isfinite(p.lowest) && std::isfinite(p.highest) && p.highest <= p.lowest) {
         s.error("highest", "must be above lowest (" + std::to_string(static_cast<int>(p.lowest)) + " degC)");
+    }
+}
+
+// The bead laid (bead.laid): the asked fillet scaled to the wire's deposit, or the asked one. Needs
+// a sound case so far.
+void lay_bead(Case& c, CaseDocument& doc) {
+    auto& b = c.bead;
+    const auto d = deposition(c.procedure);
+    b.from_wire = b.laying == BeadLaying::from_wire && d;
+    if (b.laying == BeadLaying::as_asked) {
+        b.basis = "as asked (bead.laid = \"as_asked\")";
+    } else if (!d) {
+        b.basis = "as asked, for the wire's deposit is not known: " + missing_wire_data(c.procedure);
+    } else {
+        b.basis = format_text("from the wire: wire feed x wire section x deposition efficiency %.2f / travel speed",
+                              d->efficiency);
+    }
+    if (!b.from_wire) return;
+    const mesh::Fillet laid = scaled_fillet(b.asked, d->area);
+    for (const auto& m : misfits(c.joint, laid)) {
+        doc.error("procedure.wire_feed",
+                  format_text("the wire deposits %.1f mm2, a fillet of %s in the asked shape, which does not fit (%s leg: ",
+                              d->area * 1e6, legs_text(laid).c_str(), m.key == "leg_flange" ? "flange" : "web") +
+                      m.message + "); lower the wire feed or raise the travel speed, or set bead.laid = \"as_asked\"");
+    }
+    c.joint = mesh::with_fillet(c.joint, laid);
+}
+
+// User probes must lie in metal: in the plates or in the bead laid.
+void check_probes(const Case& c, CaseDocument& doc) {
+    const auto& j = c.joint;
+    for (std::size_t i = 0; i < c.output.probes.size(); ++i) {
+        const auto& [x, y, z] = c.output.probes[i];
+        if (x < 0 || x > j.weld_length || mesh::material_at(j, y, z) == mesh::Tag::empty) {
+            doc.error("output.probes", "point " + std::to_string(i + 1) + " (" + mm_text(x) + ", " + mm_text(y) + ", " +
+                                           mm_text(z) + ") is not inside the plates or the bead" +
+                                           (c.bead.from_wire ? " laid" : ""));
+        }
     }
 }
 
@@ -438,6 +502,9 @@ LoadedCase read_case(const std::string& path, const std::vector<Override>& overr
     read_output(c, doc);
     read_preheat_search(c, doc);
     doc.finish();  // throws on any problem so far: the checks below need a sound case
+    lay_bead(c, doc);
+    check_probes(c, doc);
+    doc.finish();  // the source rule and the grid need the bead laid
     if (c.source.from_procedure) {
         const bool at_root = c.source.origin_at_root;
         c.source = source_from_procedure(weld_setup(c));

@@ -28,25 +28,49 @@ double net_power(const ProcedureSpec& p) { return p.net_power ? *p.net_power : p
 
 double heat_input(const ProcedureSpec& p) { return net_power(p) / p.travel_speed; }
 
-double equal_leg_for_area(double area, mesh::FaceShape face, double convexity) {
-    const double s = mesh::face_sign(face);
-    const double k = 2.0 * std::numbers::sqrt2 / 3.0 * convexity;
-    return -s * k + std::sqrt(k * k + 2.0 * area);
+EfficiencyDefault default_deposition_efficiency(Process process, Transfer transfer) {
+    switch (process) {
+        case Process::saw: return {0.99, "submerged arc: almost no spatter under the flux (from memory)"};
+        case Process::fcaw: return {0.85, "flux-cored wire: slag, spatter and fume (from memory)"};
+        case Process::smaw: return {1.0, "manual metal arc: no wire feed"};
+        case Process::gmaw: break;
+    }
+    switch (transfer) {
+        case Transfer::short_circuit: return {0.93, "short-circuit transfer: spatter (from memory)"};
+        case Transfer::globular: return {0.90, "globular transfer: spatter from large drops (from memory)"};
+        case Transfer::spray: return {0.98, "spray transfer: little spatter (from memory)"};
+        case Transfer::pulsed_spray: return {0.98, "pulsed spray transfer: little spatter (from memory)"};
+        case Transfer::none: break;
+    }
+    return {0.93, "gas-metal-arc, transfer mode not given (from memory)"};
 }
 
-std::optional<Deposition> deposition(const WeldSetup& c) {
-    const auto& p = c.procedure;
-    if (!p.wire_feed_speed || p.wire_diameter <= 0) return std::nullopt;
-    const auto& j = c.joint;
+std::optional<Deposition> deposition(const ProcedureSpec& p) {
+    if (!missing_wire_data(p).empty()) return std::nullopt;
     Deposition d;
     // Volume of wire fed per second over length welded per second.
-    d.area = std::numbers::pi * p.wire_diameter * p.wire_diameter / 4.0 * *p.wire_feed_speed / p.travel_speed;
-    // Each side is its own pass, so one pass's wire fills one bead.
-    d.equal_leg = equal_leg_for_area(d.area, j.face, j.convexity);
-    d.asked_area = mesh::fillet_area(j.leg_flange, j.leg_web, j.face, j.convexity);
-    d.asked_leg = equal_leg_for_area(d.asked_area, j.face, j.convexity);
-    d.difference = (d.equal_leg - d.asked_leg) / d.asked_leg;
+    d.wire_area = std::numbers::pi * p.wire_diameter * p.wire_diameter / 4.0 * *p.wire_feed_speed / p.travel_speed;
+    d.efficiency = p.deposition_efficiency;
+    d.area = d.efficiency * d.wire_area;
     return d;
+}
+
+std::string missing_wire_data(const ProcedureSpec& p) {
+    if (p.process == Process::smaw) return "manual metal arc has no wire feed";
+    if (!p.wire_feed_speed && p.wire_diameter <= 0) return "needs procedure.wire_feed and procedure.wire_diameter";
+    if (!p.wire_feed_speed) return "needs procedure.wire_feed";
+    if (p.wire_diameter <= 0) return "needs procedure.wire_diameter";
+    return "";
+}
+
+mesh::Fillet scaled_fillet(const mesh::Fillet& asked, double area) {
+    const double k = std::sqrt(area / mesh::fillet_area(asked));
+    return {asked.leg_flange * k, asked.leg_web * k, asked.face, asked.convexity * k};
+}
+
+std::string legs_text(const mesh::Fillet& f) {
+    const std::string flange = format_text("%.1f", f.leg_flange * 1e3), web = format_text("%.1f", f.leg_web * 1e3);
+    return flange == web ? flange + " mm" : flange + " x " + web + " mm";
 }
 
 TransferPreset transfer_preset(Process process, Transfer transfer) {
@@ -151,11 +175,6 @@ std::vector<std::string> plausibility_warnings(const WeldSetup& c) {
         std::max(c.joint.flange_thickness, c.joint.web_thickness) >= 10e-3) {
         w.push_back("short-circuit transfer on plate 10 mm or thicker risks incomplete fusion into the flange "
                     "(cold lap); confirm by a macro-etch (common practice, no source)");
-    }
-    if (auto d = deposition(c); d && std::abs(d->difference) > 0.15) {
-        w.push_back(format_text("the wire deposits an equal-leg fillet of %.1f mm, %+.0f %% off the legs asked for; "
-                                "check wire feed speed, travel speed and legs",
-                                d->equal_leg * 1e3, d->difference * 100));
     }
     return w;
 }

@@ -40,20 +40,29 @@ double net_power(const ProcedureSpec& p);
 // Heat input Q = η·U·I / v [J/m] (EN 1011-1; ISO/TR 17671-1), or net power / v when given.
 double heat_input(const ProcedureSpec& p);
 
-struct Deposition {
-    double area = 0;        // m², deposited per unit length of one pass = (π d²/4)·WFS / v
-    double equal_leg = 0;   // m, leg of the equal-leg fillet of the joint's face shape with that area
-    double asked_area = 0;  // m², cross-section of one bead the case asks for
-    double asked_leg = 0;   // m, equal leg with the asked area
-    double difference = 0;  // (equal_leg − asked_leg) / asked_leg
-};
-// Needs wire feed speed and wire diameter; empty otherwise. All wire is taken as deposited
-// (spatter and fume losses neglected).
-std::optional<Deposition> deposition(const WeldSetup& c);
+// Share of the wire fed that ends up in the bead, the rest lost as spatter, fume and (flux-cored)
+// slag, by process and transfer mode (from memory). Manual metal arc has no wire feed: its value
+// is never used.
+EfficiencyDefault default_deposition_efficiency(Process process, Transfer transfer);
 
-// Equal leg l of a fillet with area A and face convexity c (s = +1 convex, −1 concave, 0 flat):
-// A = l²/2 + s·(2√2/3)·l·c  ⇒  l = −s·k + √(k² + 2A), k = (2√2/3)·c.
-double equal_leg_for_area(double area, mesh::FaceShape face, double convexity);
+struct Deposition {
+    double wire_area = 0;   // m², wire fed per unit length of one pass: (π d²/4)·WFS / v
+    double efficiency = 1;  // deposition efficiency, η_d
+    double area = 0;        // m², deposited per unit length of one pass: η_d·(π d²/4)·WFS / v
+};
+// Mass conservation over one pass: A = η_d·WFS·(π d²/4) / v. Each side of a two-sided joint is
+// its own pass, so one pass's wire fills one bead. Empty without wire feed speed and diameter.
+std::optional<Deposition> deposition(const ProcedureSpec& p);
+// The keys the deposition lacks ("procedure.wire_feed", "... and procedure.wire_diameter"), or
+// why the process has none; empty when it can be computed.
+std::string missing_wire_data(const ProcedureSpec& p);
+
+// The fillet of cross-section `area` with the asked fillet's leg ratio and face: its legs and
+// convexity times √(area / A_asked). Exact, for A = l_f·l_w/2 + s·(2/3)·√(l_f² + l_w²)·c is
+// homogeneous of degree 2 in (l_f, l_w, c).
+mesh::Fillet scaled_fillet(const mesh::Fillet& asked, double area);
+// A fillet's legs as a welder names them: "7.5 mm" when equal, else "7.5 x 5.6 mm" (flange x web).
+std::string legs_text(const mesh::Fillet& fillet);
 
 // How a process or transfer mode carries metal and heat into the root (rule of thumb, values
 // from memory; the fit command calibrates what matters):

@@ -26,6 +26,8 @@ struct ProcedureSpec {
     double travel_speed = 0;   // m/s
     std::optional<double> wire_feed_speed;  // m/s
     double wire_diameter = 0;  // m (0: not given)
+    double deposition_efficiency = 1;          // share of the wire fed that stays in the bead
+    std::string deposition_efficiency_source;  // where the value comes from
     double work_angle = 0;     // rad, between torch axis and flange, in the cross-section
     double travel_angle = 0;   // rad, positive = push (torch leans toward travel), negative = drag
     std::optional<GasMix> gas;

@@ -1,4 +1,5 @@
 #include "solver/studies/run_analysis.hpp"
+#include "solver/studies/bead_summary.hpp"
 
 #include "solver/weldability/haz_hardness.hpp"
 #include "solver/weldability/metallurgy.hpp"
@@ -245,6 +246,7 @@ post::Summary make_summary(const Case& c, const RunResult& result, const RunAnal
     };
     num("Heat input", "heat_input", "heat input", heat_input(c.procedure) * 1e-6, "kJ/mm", 3);
     num("Heat input", "net_power", "net power", net_power(c.procedure), "W", 0);
+    add_bead_items(s, bead_report(c));
     num("Fusion", "penetration_flange", "penetration flange", x.penetration_flange * 1e3, "mm");
     num("Fusion", "penetration_web", "web", x.penetration_web * 1e3, "mm");
     num("Fusion", "fused_leg_flange", "legs flange", x.fused_leg_flange * 1e3, "mm", 1);
