@@ -58,8 +58,9 @@ std::string bands_words(const BandFacts& b) {
                                 b.runs, b.efficiency_spread, b.efficiency_source.c_str(), b.source_spread * 100,
                                 b.source_source.c_str(), b.grid_ratio);
     if (b.hardness) s += format_text(", with the hardness formula's own scatter ±%.0f HV", b.hardness_scatter);
-    return s + format_text(" + |grid error|), the grid error by Richardson's estimate with a stated order %.0f",
-                           b.grid_order);
+    return s + format_text(" + |grid error|), the grid error by Roache's grid convergence index (a Richardson "
+                           "estimate, order %.0f, safety factor %.0f for two grids)",
+                           b.grid_order, b.grid_safety);
 }
 
 MethodRows how_computed(const MethodFacts& f) {

@@ -34,7 +34,7 @@ struct BandFacts {
     std::string source_source;
     bool hardness = false;
     double hardness_scatter = 0;  // HV
-    double grid_ratio = 2, grid_order = 1;
+    double grid_ratio = 2, grid_order = 2, grid_safety = 3;
 };
 // The block's "how sure" words for those facts.
 std::string bands_words(const BandFacts& facts);

@@ -48,7 +48,7 @@ BandVariant source_variant(const Case& c, std::string key, std::string label, st
 
 // The whole grid at twice the spacing: the finest, the coarsest floor and along the weld.
 BandVariant grid_variant(const Case& c) {
-    BandVariant v{{"grid", "grid", "", "Richardson's estimate of the grid error"}, c, true};
+    BandVariant v{{"grid", "grid", "", ""}, c, true};
     auto& g = v.c.grid;
     auto& h = g.cross_section;
     h.finest *= band_grid_ratio;
@@ -56,7 +56,8 @@ BandVariant grid_variant(const Case& c) {
     g.along_weld *= band_grid_ratio;
     v.input.moved = "finest " + mm(c.grid.cross_section.finest) + " to " + mm(h.finest) + ", along the weld " +
                     mm(c.grid.along_weld) + " to " + mm(g.along_weld);
-    v.input.source = format_text("Richardson's estimate with a stated order %.0f", band_grid_order);
+    v.input.source = format_text("Roache's grid convergence index, safety factor %.0f, order %.0f", band_grid_safety,
+                                 band_grid_order);
     return v;
 }
 
@@ -89,8 +90,8 @@ Band combine_band(double value, const std::vector<double>& answers, const std::v
             continue;
         }
         if (variants[i].coarse) {
-            // E = (f_h − f_2h)/(2^p − 1): the shift is f_2h − f_h.
-            b.grid = std::abs(shift) / (std::pow(band_grid_ratio, band_grid_order) - 1);
+            // |E| = F_s·|f_h − f_2h|/(2^p − 1): the shift is f_2h − f_h.
+            b.grid = band_grid_safety * std::abs(shift) / (std::pow(band_grid_ratio, band_grid_order) - 1);
         } else {
             sum += shift * shift;
         }
@@ -240,6 +241,7 @@ post::BandFacts band_facts(const Case& c) {
     f.hardness_scatter = hardness_model_scatter;
     f.grid_ratio = band_grid_ratio;
     f.grid_order = band_grid_order;
+    f.grid_safety = band_grid_safety;
     return f;
 }
 

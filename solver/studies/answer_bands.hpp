@@ -11,12 +11,13 @@
 // uncertainty for independent inputs (GUM, JCGM 100:2008 §5.1.2, from memory):
 //     u = √(Σ Δᵢ² + s²)
 // with s a model's own scatter (the hardness formula's). The grid: one more run on a grid of twice
-// the spacing (finest, coarsest floor and along the weld), and the Richardson estimate of the
-// answer's grid error at the run's spacing h,
-//     E = (f_h − f_2h) / (2^p − 1),   p = 1 (stated),
-// added to both sides: band = f_h ± (u + |E|). The stated order is the lower of the orders the
-// figures show on the reference tee (README, Performance: between about 1 and 2, not monotone on
-// every grid), so the estimate leans to the safe side; its sign is not trusted for the same reason.
+// the spacing (finest, coarsest floor and along the weld), and Roache's grid convergence index of
+// the answer at the run's spacing h, a Richardson estimate of its grid error with a safety factor
+// (Roache 1994, J. Fluids Eng. 116, 405, from memory):
+//     |E| = F_s·|f_h − f_2h| / (2^p − 1),   F_s = 3 for two grids, p = 2 (the scheme's order),
+// added to both sides: band = f_h ± (u + |E|). Two grids cannot see convergence that is not
+// monotone (README, Performance: the web penetration on the reference tee), which is why the two-grid
+// index carries the larger safety factor and why its sign is not trusted.
 // A variant keeps the nominal case's derived source: the arc efficiency moves the power only, the
 // source's dimensions move the shape only.
 #pragma once
@@ -40,8 +41,8 @@
 
 namespace heatbead {
 
-// The stated order of the grid error and the coarser grid's spacing ratio (above).
-inline constexpr double band_grid_ratio = 2, band_grid_order = 1;
+// The coarser grid's spacing ratio, the order of the grid error and the safety factor (above).
+inline constexpr double band_grid_ratio = 2, band_grid_order = 2, band_grid_safety = 3;
 
 // The headline answers of a run that carry a band, by their summary keys.
 inline constexpr std::array<std::string_view, 7> banded_keys{"penetration_flange", "penetration_web", "fused_area",
@@ -78,7 +79,7 @@ struct Band {
     double value = no_value, low = no_value, high = no_value;
     std::vector<double> shifts;  // per variant: its answer minus the value (NaN where it has none)
     double inputs = 0;           // u: √(Σ Δᵢ² + s²) over the inputs (the grid's variant not among them)
-    double grid = 0;             // |E|
+    double grid = 0;             // |E|, the grid convergence index
     double scatter = 0;          // s
     std::string reason;          // why there is no band; empty when there is one
     bool ok() const { return reason.empty(); }

@@ -112,22 +112,19 @@ PreheatBand band_preheat(const Case& c, const PreheatAnswer& nominal, int jobs, 
         if (!next) break;
         out.checks.push_back(search.check(*next));
     }
-    const PreheatBandCheck& last = out.checks.back();
-    if (last.within) out.across = last.preheat;
+    if (out.checks.back().within) out.across = out.checks.back().preheat;
     for (const auto& k : out.checks) out.runs += k.bands.runs;
     out.runs += out.trials.size();
     out.wall = std::chrono::duration<double>(std::chrono::steady_clock::now() - start).count();
     const double highest = c.preheat_search.highest;
     if (out.across) {
-        out.words = format_text("across the band %.0f degC (verified: %s; %zu extra runs)", *out.across,
-                                last.verdict.c_str(), out.runs);
+        out.words = format_text("across the band %.0f degC, verified by its band there (%zu extra runs)", *out.across,
+                                out.runs);
     } else if (static_cast<int>(out.checks.size()) >= max_band_checks) {
-        out.words = format_text("not verified across the band after %d bands (the last %s; %zu extra runs)",
-                                max_band_checks, last.verdict.c_str(), out.runs);
+        out.words = format_text("not verified across the band after %d bands (%zu extra runs)", max_band_checks, out.runs);
     } else {
-        out.words = format_text("not met across the band up to %.0f degC (preheat_search.highest; the last band %s; "
-                                "%zu extra runs)",
-                                highest, last.verdict.c_str(), out.runs);
+        out.words = format_text("not met across the band up to %.0f degC (preheat_search.highest; %zu extra runs)",
+                                highest, out.runs);
     }
     return out;
 }
