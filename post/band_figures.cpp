@@ -15,6 +15,11 @@ namespace {
 
 const Stroke bar_stroke{"#1f4e79", 1.8, ""};
 
+constexpr const char* bands_lead =
+    "Each band comes from the extra runs described under \"how sure\" in How this was computed, at the top of the "
+    "page. The table gives the shift of each answer when one input is moved by its spread, and the grid "
+    "convergence index.";
+
 std::string id_of(const std::string& key) {
     std::string id = key;
     std::replace_if(id.begin(), id.end(), [](char c) { return !std::isalnum(static_cast<unsigned char>(c)); }, '-');
@@ -47,7 +52,8 @@ std::string band_svg(const BandedAnswer& a) {
 
 std::string bands_section(const BandsView& b) {
     if (b.answers.empty()) return "";
-    std::string s = "<section class=\"bands\"><h2>How sure</h2><p class=\"note\">" + escape_html(b.note) + "</p>\n";
+    std::string s = "<section class=\"bands\"><h2>How sure</h2><p class=\"note\">" +
+                    escape_html((b.note.empty() ? "" : b.note + " ") + bands_lead) + "</p>\n";
     s += "<div class=\"figures\">\n";
     for (const auto& a : b.answers)
         s += figure(id_of(a.key), band_svg(a),

@@ -21,7 +21,7 @@ struct BandsView {
     // What moved each answer: the table's header and rows, as text with units.
     std::vector<std::string> columns;
     std::vector<std::vector<std::string>> rows;
-    std::string note;  // how the bands were made, in words
+    std::string note;  // what the bands mean here, in words, before the lead every section has (may be empty)
 };
 
 // The answer's figure (300 × 300 px, an SVG with id "figure-band-<key>-plot"). Throws

@@ -16,28 +16,21 @@ std::string integrator_words(const std::string& name) {
     return name;
 }
 
-// The model's known limits, shortest first; the first two always hold, the source's only while it is
-// the rule of thumb, the hardness ones only where hardness is estimated.
-MethodRows known_limits(const MethodFacts& f) {
-    MethodRows rows{
-        {"known limit", "heat flows by conduction only: no weld-pool flow or arc pressure (an optional liquid "
-                        "conductivity factor stands in for them), so peaks under the arc run well above a real "
-                        "pool; HAZ cooling is much less sensitive to this"},
-        {"known limit", "the bead laid has the shape asked for, scaled to the wire's deposit; a real bead's shape "
-                        "follows the current, voltage, angles and position"},
-    };
+// The model's known limits, in one row: the first two always hold, the source's only while it is the
+// rule of thumb, the hardness ones only where hardness is estimated.
+std::pair<std::string, std::string> known_limits(const MethodFacts& f) {
+    std::string s = "heat flows by conduction only: no weld-pool flow or arc pressure (an optional liquid "
+                    "conductivity factor stands in for them), so peaks under the arc run well above a real pool, "
+                    "while HAZ cooling is much less sensitive to this; the bead laid has the shape asked for, scaled "
+                    "to the wire's deposit, where a real bead's shape follows the current, voltage, angles and position";
     if (f.source_from_procedure)
-        rows.push_back({"known limit", "the source's shape is a rule of thumb from the bead and the transfer mode, "
-                                       "not a calibration: fusion depths are uncertain until the source is fitted "
-                                       "to a macro-section (heatbead fit)"});
-    if (f.hardness) {
-        rows.push_back({"known limit", "hardness is estimated at the station's probes from their own cooling; the "
-                                       "formula's coefficients are from memory, to be checked against the paper "
-                                       "and a hardness survey"});
-        rows.push_back({"known limit", "no model of hydrogen diffusion, restraint or residual stress: the time "
-                                       "above 100 degC is the only hydrogen criterion"});
-    }
-    return rows;
+        s += "; the source's shape is a rule of thumb from the bead and the transfer mode, not a calibration: fusion "
+             "depths are uncertain until the source is fitted to a macro-section (heatbead fit)";
+    if (f.hardness)
+        s += "; hardness is estimated at the station's probes from their own cooling, by coefficients from memory "
+             "to be checked against the papers and a hardness survey; no model of hydrogen diffusion, restraint or "
+             "residual stress: the time above 100 degC is the only hydrogen criterion";
+    return {"known limits", s};
 }
 
 }  // namespace
@@ -70,7 +63,7 @@ MethodRows how_computed(const MethodFacts& f) {
         rows.push_back({"hardness limit", f.hardness_limit});
     }
     rows.push_back({"how sure", f.bands});
-    for (auto& row : known_limits(f)) rows.push_back(std::move(row));
+    rows.push_back(known_limits(f));
     return rows;
 }
 

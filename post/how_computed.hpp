@@ -41,8 +41,8 @@ std::string bands_words(const BandFacts& facts);
 
 using MethodRows = std::vector<std::pair<std::string, std::string>>;
 
-// The block's rows (name, words): grid, integrator, source, hardness (when estimated), bands, and the
-// known limits of the model.
+// The block's rows (name, words): grid, integrator, source, hardness model and limit (when estimated),
+// how sure, and the model's known limits in one row.
 MethodRows how_computed(const MethodFacts& facts);
 // One block for several runs (named): a row all of them share once, any other with the runs it
 // belongs to, "heat source (spray, pulsed)", in the order first seen.

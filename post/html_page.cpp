@@ -23,6 +23,7 @@ thead th{font-weight:bold;color:#222;border-bottom:2px solid #888}
 .figures{display:flex;flex-wrap:wrap;gap:1.5em;margin-top:1.5em}
 figure{margin:0;flex:0 1 660px}figure svg{max-width:100%;height:auto;display:block}
 figcaption{font-size:.9em;color:#444;margin-top:.3em}
+.bands figure{flex-basis:auto}.bands figcaption{width:0;min-width:100%}
 )";
 
 // Both kinds of table open the same way and say so when there is nothing to show.

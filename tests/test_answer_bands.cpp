@@ -107,7 +107,7 @@ TEST_CASE("the inputs are moved by their spreads, the grid by twice its spacing"
 TEST_CASE("the band holds the nominal answer and the answer of a finer grid", "[bands]") {
     const BandedRun coarse(demo_case("1.5", "2"));
     const testing::AnalysedRun fine(demo_case("0.75", "1"));
-    for (const auto key : banded_keys) {
+    for (const auto& [key, name] : banded_answers) {
         const Band& b = coarse.bands.bands.at(std::string(key));
         const double finer = run_answers(fine.summary).at(std::string(key));
         INFO(key << ": " << b.value << " (" << b.low << " to " << b.high << "), grid index " << b.grid << "; at 0.75 mm "
@@ -134,7 +134,7 @@ TEST_CASE("narrower input spreads give narrower bands, down to the grid index an
     const BandedRun full(demo_case("1", "2"));
     const BandedRun half(demo_case("1", "2", {{"bands.arc_efficiency_spread", "0.05"}, {"bands.source_spread", "0.1"}}));
     const BandedRun zero(demo_case("1", "2", {{"bands.arc_efficiency_spread", "0"}, {"bands.source_spread", "0"}}));
-    for (const auto key : banded_keys) {
+    for (const auto& [key, name] : banded_answers) {
         const Band& f = full.bands.bands.at(std::string(key));
         const Band& h = half.bands.bands.at(std::string(key));
         const Band& z = zero.bands.bands.at(std::string(key));
@@ -150,7 +150,7 @@ TEST_CASE("narrower input spreads give narrower bands, down to the grid index an
 TEST_CASE("the summary's files carry each band's low and high, or why there is none", "[bands]") {
     const BandedRun banded(demo_case("1.5", "2"));
     const auto json = nlohmann::json::parse(banded.summary.to_json());
-    for (const auto key : banded_keys) {
+    for (const auto& [key, name] : banded_answers) {
         const auto& item = json.at(std::string(key));
         CHECK(item.at("low").is_number());
         CHECK(item.at("high").is_number());

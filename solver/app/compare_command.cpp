@@ -408,7 +408,7 @@ post::CompareReportInput report_input(const std::vector<Outcome>& outcomes, cons
         names.push_back(o.name), summaries.push_back(&o.summary), bands.push_back(o.bands ? &*o.bands : nullptr);
         methods.emplace_back(o.name, post::how_computed(method_facts(*o.c)));
     }
-    r.bands = bands_view(names, summaries, bands, post::bands_words(band_facts(*outcomes.front().c)));
+    r.bands = bands_view(names, summaries, bands, "");
     r.how_computed = post::merge_how_computed(methods);
     return r;
 }

@@ -49,7 +49,7 @@ nlohmann::json band_json(const PreheatBand& b) {
     return j;
 }
 
-void add_band_to_report(post::PreheatReportInput& r, const PreheatBand& b, const Case& c) {
+void add_band_to_report(post::PreheatReportInput& r, const PreheatBand& b) {
     r.across = b.across;
     r.answer.push_back({"Across the band of the answers", b.words});
     for (const auto& k : b.checks) {
@@ -62,8 +62,7 @@ void add_band_to_report(post::PreheatReportInput& r, const PreheatBand& b, const
         }
     }
     post::BandsView& view = r.bands;
-    view.note = b.words + ". The band at each preheat checked comes from its own extra runs: " +
-                post::bands_words(band_facts(c));
+    view.note = "The preheat " + b.words + ". The band at each preheat checked comes from its own extra runs.";
     view.columns = {"answer", "preheat", "value (band)"};
     for (const auto& f : figures) {
         post::BandedAnswer answer{f.key, f.name, f.unit, {}, {}, {}, {}};

@@ -3,7 +3,6 @@
 #pragma once
 
 #include "post/preheat_report.hpp"
-#include "solver/case/case.hpp"
 #include "solver/studies/preheat_band.hpp"
 
 #include <nlohmann/json.hpp>
@@ -20,6 +19,6 @@ std::vector<std::string> band_lines(const PreheatBand& band);
 nlohmann::json band_json(const PreheatBand& band);
 // Puts the bands on the report's runs at the preheats checked, the answer across the band, a row in the answer
 // table and the "How sure" section.
-void add_band_to_report(post::PreheatReportInput& report, const PreheatBand& band, const Case& c);
+void add_band_to_report(post::PreheatReportInput& report, const PreheatBand& band);
 
 }  // namespace heatbead

@@ -283,7 +283,7 @@ int preheat_command(const LoadedCase& loaded, const PreheatOptions& options) {
     if (!band) json["no_band"] = c.bands.enabled ? "no preheat meets the limits at the nominal values" : "bands.enabled = false";
     post::write_file_atomically(out / "preheat.json", json.dump(2) + "\n");
     post::PreheatReportInput report = report_input(answer, c);
-    if (band) add_band_to_report(report, *band, c);
+    if (band) add_band_to_report(report, *band);
     report.how_computed = post::how_computed(method_facts(c));
     post::write_preheat_report(out / "preheat.html", report);
 

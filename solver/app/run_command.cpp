@@ -246,7 +246,7 @@ void RunCommand::write_report() {
     for (const auto& [group, note] : summary_.notes()) notes.push_back(note);
     if (!analysis_.section.root_fused) notes.push_back("the root is not fused");
     post::ReportInput input = make_report_input(c_, prepared_, analysis_, summary_, notes);
-    input.bands = bands_view({"this run"}, {&summary_}, {bands_ ? &*bands_ : nullptr}, post::bands_words(band_facts(c_)));
+    input.bands = bands_view({"this run"}, {&summary_}, {bands_ ? &*bands_ : nullptr}, "");
     input.how_computed = post::how_computed(method_facts(c_, prepared_.sim->cells().size()));
     post::write_report(out_ / "report.html", input);
     written_.push_back((out_ / "report.html").string());

@@ -137,7 +137,7 @@ AnswerBands make_bands(const Case& c, const mesh::Grid& grid, const Material& ma
 
 Answers run_answers(const post::Summary& s) {
     Answers a;
-    for (const auto key : banded_keys) {
+    for (const auto& [key, name] : banded_answers) {
         const post::SummaryItem* i = s.find(std::string(key));
         if (i) a[i->key] = i->missing() ? no_value : *i->value;
     }
@@ -159,7 +159,7 @@ AnswerBands run_bands(const Case& c, const mesh::Grid& grid, const Material& mat
 }
 
 void add_bands(post::Summary& s, const AnswerBands* bands) {
-    for (const auto key : banded_keys) {
+    for (const auto& [key, name] : banded_answers) {
         post::SummaryItem* i = s.find(std::string(key));
         if (!i) continue;
         i->banded = true;
@@ -198,13 +198,14 @@ post::BandsView bands_view(const std::vector<std::string>& names, const std::vec
         view.columns.push_back(input.label + (names.size() == 1 ? " (" + input.moved + ")" : "") +
                                (input.key == "grid" ? ": |error|" : ""));
     view.columns.push_back("model scatter");
-    for (const auto key : banded_keys) {
+    for (const auto& [key, name] : banded_answers) {
         post::BandedAnswer answer;
         answer.key = std::string(key);
+        answer.name = std::string(name);
         for (std::size_t r = 0; r < summaries.size(); ++r) {
             const post::SummaryItem* i = summaries[r]->find(answer.key);
             if (!i) continue;
-            answer.name = i->group + ": " + i->label, answer.unit = i->unit;
+            answer.unit = i->unit;
             answer.runs.push_back(names[r]);
             answer.value.push_back(i->missing() ? no_value : *i->value);
             answer.low.push_back(i->has_band() ? *i->low : no_value);

@@ -44,10 +44,17 @@ namespace heatbead {
 // The coarser grid's spacing ratio, the order of the grid error and the safety factor (above).
 inline constexpr double band_grid_ratio = 2, band_grid_order = 2, band_grid_safety = 3;
 
-// The headline answers of a run that carry a band, by their summary keys.
-inline constexpr std::array<std::string_view, 7> banded_keys{"penetration_flange", "penetration_web", "fused_area",
-                                                             "t8_5_min",           "t8_5_max",        "cooling_rate_540",
-                                                             "haz_hardness_max"};
+// The headline answers of a run that carry a band: their summary keys, and their names on a page.
+struct BandedKey {
+    std::string_view key, name;
+};
+inline constexpr std::array<BandedKey, 7> banded_answers{{{"penetration_flange", "penetration into the flange"},
+                                                          {"penetration_web", "penetration into the web"},
+                                                          {"fused_area", "fused area"},
+                                                          {"t8_5_min", "t8/5, shortest at the HAZ probes"},
+                                                          {"t8_5_max", "t8/5, longest at the HAZ probes"},
+                                                          {"cooling_rate_540", "fastest cooling at 540 degC"},
+                                                          {"haz_hardness_max", "HAZ hardness, highest"}}};
 
 // Düren's formula against measured HAZ hardness: ±30 HV (from memory; the spread usually quoted for
 // carbon-equivalent hardness formulas), the hardness model's own part of its band.
