@@ -194,7 +194,7 @@ bool RunCommand::make_bands() {
         const int total = options_.threads > 0 ? options_.threads : cores;
         const int jobs = std::min(total, static_cast<int>(band_variants(c_).size()));
         if (!options_.quiet) {
-            std::printf("Bands       %zu extra runs, %d at a time\n", band_variants(c_).size(), jobs);
+            std::printf("Bands       running %zu extra runs, %d at a time\n", band_variants(c_).size(), jobs);
             std::fflush(stdout);
         }
         try {
