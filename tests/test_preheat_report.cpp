@@ -109,9 +109,10 @@ TEST_CASE("the preheat report shows the numbers it is given", "[preheat report]"
     CHECK(count(figure_of(html, "figure-preheat-hydrogen"), "limit: at least 120 s") == 1);
     CHECK(count(figure_of(html, "figure-preheat-hydrogen"), "<polygon") == 4);  // the 150 °C run never got there
     const std::string table = part(html, "<h2>Runs of the search</h2>", "</table>");
-    CHECK(count(table, "<tr><td>75</td><td>338</td><td>flange, 0.5 mm</td><td>5.6</td><td>131</td>") == 0);  // marked
-    CHECK(count(table, "<tr class=\"passes\"><td>75</td><td>338</td><td>flange, 0.5 mm</td><td>5.6</td><td>131</td>"
-                       "<td>meets every limit</td></tr>") == 1);
+    CHECK(count(table, "<tr><td>75</td><td>338</td><td>flange, 0.5 mm</td>") == 0);  // marked
+    CHECK(count(table, "<tr class=\"passes\"><td>75</td><td>338</td><td>flange, 0.5 mm</td><td>338</td><td>320</td>"
+                       "<td>5.6</td><td>131</td><td>meets every limit</td></tr>") == 1);
+    CHECK(count(table, "<th scope=\"col\">there by Düren (HV)</th><th scope=\"col\">by Yurioka (HV)</th>") == 1);
     CHECK(count(table, "<td>not below 100 °C in the run</td>") == 1);
     CHECK(count(table, "<th scope=\"col\">shortest time to 100 °C (s)</th>") == 1);
 }
@@ -143,7 +144,7 @@ TEST_CASE("the preheat report escapes every text it is given", "[preheat report]
 
 TEST_CASE("runs without values are left out of the figures and shown as n/a", "[preheat report]") {
     PreheatReportInput in = sample_input();
-    in.runs[3].hardness = none;
+    in.runs[3].hardness = in.runs[3].hardness_duren = in.runs[3].hardness_yurioka = none;
     in.runs[3].hardest_probe.clear();
     in.runs[3].t8_5 = none;
     for (auto& r : in.runs) r.time_to_100 = none;
@@ -159,7 +160,8 @@ TEST_CASE("runs without values are left out of the figures and shown as n/a", "[
     CHECK(count(html, "standard:") == 0);
     CHECK(count(html, "figure-preheat-hydrogen") == 0);  // no run cooled below 100 °C
     CHECK(count(html, "<svg") == 2);
-    CHECK(count(html, "<tr><td>50</td><td>n/a</td><td>n/a</td><td>n/a</td><td>not below 100 °C in the run</td>") == 1);
+    CHECK(count(html, "<tr><td>50</td><td>n/a</td><td>n/a</td><td>n/a</td><td>n/a</td><td>n/a</td><td>not below 100 °C "
+                      "in the run</td>") == 1);
     CHECK(count(html, "nan") == 0);
     CHECK(count(html, "inf") == 0);
 }

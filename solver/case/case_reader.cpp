@@ -149,8 +149,8 @@ void read_steel_type(Section& s, MaterialSpec& m) {
     m.tempering_temperature = s.optional_quantity("tempering_temperature", Dimension::temperature, "degC",
                                                   Bounds::closed(300, 750));
     if (m.steel_type == SteelType::quenched_tempered && !m.tempering_temperature) {
-        s.error("tempering_temperature", "required for steel_type = \"quenched_tempered\": the temperature the "
-                                         "plate was tempered at (its certificate gives it), which preheat must not pass");
+        s.error("steel_type", "\"quenched_tempered\" needs base_metal.tempering_temperature: the temperature the "
+                              "plate was tempered at (its certificate gives it), which preheat must not pass");
     } else if (m.steel_type != SteelType::quenched_tempered && m.tempering_temperature) {
         s.error("tempering_temperature", "only for steel_type = \"quenched_tempered\"");
     }
