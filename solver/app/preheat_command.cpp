@@ -66,6 +66,18 @@ std::string not_met_text(const PreheatAnswer& a, const Case& c) {
            "; at " + format_text("%.0f degC", top.preheat) + ": " + top.verdict;
 }
 
+// The range the search looked through, in stages, and why it ends where it does.
+std::string searched_text(const PreheatAnswer& a, const Case& c) {
+    const auto& spec = c.preheat_search;
+    std::string s = format_text("%.0f to ", spec.lowest);
+    if (a.searched_to > usual_preheat_top && !spec.highest_given && spec.lowest < usual_preheat_top) {
+        s += format_text("%.0f °C, where nothing passed, then on to ", usual_preheat_top);
+    }
+    s += format_text("%.0f °C", a.searched_to);
+    if (a.searched_to < spec.highest) return s + format_text(" (it would have gone on to %.0f °C had nothing passed: ", spec.highest) + spec.highest_reason + ")";
+    return s + ": " + spec.highest_reason;
+}
+
 // Plain words on what each answer rests on and why they differ here.
 std::string explanation(const PreheatAnswer& a, const Case& c) {
     const auto trials = by_preheat(a.trials);
@@ -214,9 +226,7 @@ post::PreheatReportInput report_input(const PreheatAnswer& a, const Case& c) {
     r.created = now_utc();
     const auto rec = recommended(a, c);
     r.answer = {{"Limits", limits_text(c)},
-                {"Searched", format_text("%.0f to ", c.preheat_search.lowest) + format_text("%.0f °C", a.searched_to) +
-                                 (a.searched_to < c.preheat_search.highest ? format_text(" (up to %.0f °C had nothing passed): ", c.preheat_search.highest) : ": ") +
-                                 c.preheat_search.highest_reason},
+                {"Searched", searched_text(a, c)},
                 {"Simulation (lowest preheat meeting the limits)", a.found ? format_text("%.0f °C", *a.found) : not_met_text(a, c)},
                 {"EN 1011-2 method B", format_text("%.0f °C", a.standard.formula) +
                                            (a.standard.formula < c.preheat_search.lowest ? " (no preheat)" : "")},
