@@ -156,7 +156,7 @@ Rows table(const std::vector<Outcome>& outcomes) {
     });
     row("lowest preheat (simulation)", [](const Outcome& o, const Figures& f) {
         if (!o.preheat) return std::string("not searched");
-        return o.preheat->found ? or_na("%.0f degC", f.preheat) : "none up to " + or_na("%.0f degC", o.c->preheat_search.highest);
+        return o.preheat->found ? or_na("%.0f degC", f.preheat) : "not met up to " + or_na("%.0f degC", o.preheat->searched_to);
     });
     row("preheat EN 1011-2 method B", [](const Outcome& o, const Figures& f) {
         return o.preheat ? or_na("%.0f degC", f.standard) : std::string("not computed");
@@ -206,8 +206,12 @@ std::vector<std::string> differences(const std::vector<Outcome>& outcomes) {
                           or_na("%.1f s", b_faster ? base.t85_lo : f.t85_lo) + ").");
         }
         if (std::isfinite(f.preheat) && std::isfinite(base.preheat) && f.preheat != base.preheat) {
+            // The limit follows each case's filler hydrogen unless set, so it may differ.
+            const double la = outcomes.front().c->preheat_search.hardness_limit, lb = outcomes[i].c->preheat_search.hardness_limit;
             out.push_back(b + " needs " + or_na("%.0f degC", std::abs(f.preheat - base.preheat)) +
-                          (f.preheat > base.preheat ? " more" : " less") + " preheat than " + a + " for the same hardness limit.");
+                          (f.preheat > base.preheat ? " more" : " less") + " preheat than " + a +
+                          (la == lb ? std::string(" for the same hardness limit.")
+                                    : " (hardness limits " + or_na("%.0f HV", lb) + " and " + or_na("%.0f HV", la) + ")."));
         }
     }
     return out;
