@@ -50,7 +50,10 @@ std::string bands_words(const BandFacts& b) {
                                 "Band = answer ± (root-sum-square of the shifts",
                                 b.runs, b.efficiency_spread, b.efficiency_source.c_str(), b.source_spread * 100,
                                 b.source_source.c_str(), b.grid_ratio);
-    if (b.hardness) s += format_text(", with the hardness formula's own scatter ±%.0f HV", b.hardness_scatter);
+    if (b.hardness)
+        s += format_text(", with the hardness formulas' own scatter: wide enough to hold Düren's estimate ±%.0f HV and "
+                         "Yurioka's ±%.0f HV",
+                         b.duren_scatter, b.yurioka_scatter);
     return s + format_text(" + |grid error|), the grid error by Roache's grid convergence index (a Richardson "
                            "estimate, order %.0f, safety factor %.0f for two grids)",
                            b.grid_order, b.grid_safety);

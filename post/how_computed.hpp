@@ -33,7 +33,7 @@ struct BandFacts {
     double source_spread = 0;  // a share
     std::string source_source;
     bool hardness = false;
-    double hardness_scatter = 0;  // HV
+    double duren_scatter = 0, yurioka_scatter = 0;  // HV, each formula's own
     double grid_ratio = 2, grid_order = 2, grid_safety = 3;
 };
 // The block's "how sure" words for those facts.

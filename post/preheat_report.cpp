@@ -146,12 +146,14 @@ std::string runs_table(const std::vector<PreheatRun>& runs) {
     rows.reserve(runs.size());
     for (const auto& r : runs)
         rows.push_back({{short_number(r.preheat), format_fixed(r.hardness, 0) + band(r.hardness_low, r.hardness_high, 0),
-                         r.hardest_probe.empty() ? "n/a" : r.hardest_probe, format_fixed(r.t8_5, 1) + band(r.t8_5_low, r.t8_5_high, 1),
+                         r.hardest_probe.empty() ? "n/a" : r.hardest_probe, format_fixed(r.hardness_duren, 0),
+                         format_fixed(r.hardness_yurioka, 0), format_fixed(r.t8_5, 1) + band(r.t8_5_low, r.t8_5_high, 1),
                          std::isfinite(r.time_to_100) ? format_fixed(r.time_to_100, 0) : "not below 100 °C in the run",
                          r.verdict},
                         r.passes ? "passes" : ""});
     return column_table("Runs of the search",
-                        {"preheat (°C)", "highest HAZ hardness (HV)", "at probe", "shortest t8/5 (s)",
+                        {"preheat (°C)", "highest HAZ hardness (HV)", "at probe", "there by Düren (HV)",
+                         "by Yurioka (HV)", "shortest t8/5 (s)",
                          "shortest time to 100 °C (s)", "verdict"},
                         rows);
 }
@@ -194,7 +196,7 @@ std::string render_preheat_report(const PreheatReportInput& in) {
                                     in.critical_t8_5, "needed for " + short_number(in.hardness_limit) + " HV"}),
                    "Shortest cooling time from 800 to 500 °C over the hardened HAZ probes of each run against its "
                    "preheat" + std::string(in.min_t8_5 ? ", with the shortest allowed" : "") +
-                       std::string(in.critical_t8_5 ? "; the grey line is the t8/5 the hardness formula needs for the "
+                       std::string(in.critical_t8_5 ? "; the grey line is the t8/5 the hardness formulas need for the "
                                                       "hardness limit." : ".") + answers) + "\n";
     if (std::any_of(runs.begin(), runs.end(), [](const PreheatRun& r) { return std::isfinite(r.time_to_100); }))
         page += figure("figure-preheat-hydrogen",

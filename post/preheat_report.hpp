@@ -21,6 +21,7 @@ struct PreheatRun {
     double preheat = 0;             // °C
     double hardness = 0;            // HV: highest estimate over the hardened HAZ probes (NaN: none)
     std::string hardest_probe;      // where it was found
+    double hardness_duren = 0, hardness_yurioka = 0;  // HV: the two formulas there (NaN: none)
     double t8_5 = 0;                // s: shortest over those probes (NaN: none)
     double time_to_100 = 0;         // s: shortest over those probes (NaN: none cooled below 100 °C in the run)
     bool passes = false;

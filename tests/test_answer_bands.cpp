@@ -17,12 +17,14 @@
 #include "solver/studies/preheat_band.hpp"
 #include "solver/studies/run_analysis.hpp"
 #include "solver/studies/run_setup.hpp"
+#include "solver/weldability/haz_hardness.hpp"
 #include "tests/analysed_run.hpp"
 
 #include <catch2/catch.hpp>
 
 #include <nlohmann/json.hpp>
 
+#include <algorithm>
 #include <atomic>
 #include <cmath>
 #include <filesystem>
@@ -68,20 +70,41 @@ TEST_CASE("a band is the root-sum-square of the input shifts and the model's sca
     REQUIRE(variants.size() == 5);
     CHECK(variants.back().coarse);
     const std::vector<double> answers{1.3, 0.6, 1.0, 1.0, 1.2};
-    const Band b = combine_band(1.0, answers, variants, 0);
+    const Band b = combine_band(1.0, answers, variants, {});
     REQUIRE(b.ok());
     CHECK(b.inputs == Approx(0.5));
     CHECK(b.grid == Approx(0.2));
     CHECK(b.low == Approx(0.3));
     CHECK(b.high == Approx(1.7));
-    // A scatter of 1.2 joins the root-sum-square: √(0.25 + 1.44) = 1.3.
-    CHECK(combine_band(1.0, answers, variants, 1.2).inputs == Approx(1.3));
+    // A scatter of 1.2 each way joins the root-sum-square: √(0.25 + 1.44) = 1.3, and the grid's 0.2.
+    CHECK(combine_band(1.0, answers, variants, {1.2, 1.2}).high == Approx(2.5));
     // A run without the answer leaves it without a band, and says which.
     std::vector<double> gap = answers;
     gap[2] = no_value;
-    const Band none = combine_band(1.0, gap, variants, 0);
+    const Band none = combine_band(1.0, gap, variants, {});
     CHECK_FALSE(none.ok());
     CHECK_THAT(none.reason, Catch::Contains("source depth"));
+}
+
+TEST_CASE("a hardness band holds each formula's estimate within its own scatter", "[bands]") {
+    // Hand-worked, with Düren's ±30 HV and Yurioka's ±25 HV (from memory): judged 410 HV (Düren's),
+    // Yurioka 390 HV: above max(440, 415) − 410 = 30, below 410 − min(380, 365) = 45; Yurioka's judged
+    // at 430 HV over Düren's 425 HV: above max(455, 455) − 430 = 25, below 430 − min(395, 405) = 35;
+    // no estimate of either: the larger scatter each way, 30 HV.
+    const ModelScatter a = hardness_model_scatter(410, 410, 390), b = hardness_model_scatter(430, 425, 430),
+                       none = hardness_model_scatter(no_value, no_value, no_value);
+    CHECK(a.above == Approx(30));
+    CHECK(a.below == Approx(45));
+    CHECK(b.above == Approx(25));
+    CHECK(b.below == Approx(35));
+    CHECK(none.above == Approx(30));
+    CHECK(none.below == Approx(30));
+    // Joined to the inputs' root-sum-square side by side: shifts 0.3 and 0.4 (u = 0.5) with a scatter of
+    // 1.2 below and 0 above: 1 − 1.3 to 1 + 0.5.
+    const Case c = demo_case("1.5", "2");
+    const Band band = combine_band(1.0, {1.3, 0.6, 1.0, 1.0, 1.0}, band_variants(c), {1.2, 0});
+    CHECK(band.low == Approx(1 - 1.3));
+    CHECK(band.high == Approx(1.5));
 }
 
 TEST_CASE("the inputs are moved by their spreads, the grid by twice its spacing", "[bands]") {
@@ -143,7 +166,7 @@ TEST_CASE("narrower input spreads give narrower bands, down to the grid index an
         CHECK(width(h) < width(f));
         CHECK(width(z) < width(h));
         // With no spread the inputs move nothing: the band is the grid index and the scatter alone.
-        CHECK(width(z) == Approx(2 * (z.grid + z.scatter)));
+        CHECK(width(z) == Approx(2 * z.grid + z.scatter.below + z.scatter.above));
     }
 }
 
@@ -185,8 +208,8 @@ TEST_CASE("the preheat across the band is verified by a band within the limits",
         REQUIRE(h.ok());
         CHECK(h.low <= h.value);
         CHECK(h.value <= h.high);
-        // The hardness model's own scatter is part of every hardness band.
-        CHECK(h.high - h.value >= hardness_model_scatter);
+        // The hardness formulas' own scatter is part of every hardness band.
+        CHECK(h.high - h.value >= std::min(duren_scatter, yurioka_scatter));
     }
     REQUIRE(band.across);
     // More preheat never makes a HAZ harder (common practice, no source): the worst side asks for at

@@ -37,11 +37,11 @@ PreheatReportInput sample_input() {
                      "the standard method assumes.";
     in.inputs = {{"carbon equivalent (CET)", "0.32 %"}, {"hydrogen", "H10"}, {"combined thickness", "45 mm"},
                  {"heat input", "0.86 kJ/mm"}};
-    in.runs = {{20, 392, "flange, 0.5 mm", 4.1, 48, false, "hardness 392 HV above 350 HV; t8/5 4.1 s below 4.5 s"},
-               {150, 281, "web, 0.5 mm", 7.9, none, true, "meets every limit"},
-               {75, 338, "flange, 0.5 mm", 5.6, 131, true, "meets every limit"},
-               {50, 361, "flange, 0.5 mm", 4.9, 86, false, "hardness 361 HV above 350 HV; time to 100 °C 86 s below 120 s"},
-               {100, 317, "web, 0.5 mm", 6.4, 210, true, "meets every limit"}};
+    in.runs = {{20, 392, "flange, 0.5 mm", 392, 371, 4.1, 48, false, "hardness 392 HV above 350 HV; t8/5 4.1 s below 4.5 s"},
+               {150, 281, "web, 0.5 mm", 270, 281, 7.9, none, true, "meets every limit"},
+               {75, 338, "flange, 0.5 mm", 338, 320, 5.6, 131, true, "meets every limit"},
+               {50, 361, "flange, 0.5 mm", 361, 342, 4.9, 86, false, "hardness 361 HV above 350 HV; time to 100 °C 86 s below 120 s"},
+               {100, 317, "web, 0.5 mm", 317, 300, 6.4, 210, true, "meets every limit"}};
     in.hardness_limit = 350;
     in.min_t8_5 = 4.5;
     in.min_time_to_100 = 120;
@@ -109,9 +109,10 @@ TEST_CASE("the preheat report shows the numbers it is given", "[preheat report]"
     CHECK(count(figure_of(html, "figure-preheat-hydrogen"), "limit: at least 120 s") == 1);
     CHECK(count(figure_of(html, "figure-preheat-hydrogen"), "<polygon") == 4);  // the 150 °C run never got there
     const std::string table = part(html, "<h2>Runs of the search</h2>", "</table>");
-    CHECK(count(table, "<tr><td>75</td><td>338</td><td>flange, 0.5 mm</td><td>5.6</td><td>131</td>") == 0);  // marked
-    CHECK(count(table, "<tr class=\"passes\"><td>75</td><td>338</td><td>flange, 0.5 mm</td><td>5.6</td><td>131</td>"
-                       "<td>meets every limit</td></tr>") == 1);
+    CHECK(count(table, "<tr><td>75</td><td>338</td><td>flange, 0.5 mm</td>") == 0);  // marked
+    CHECK(count(table, "<tr class=\"passes\"><td>75</td><td>338</td><td>flange, 0.5 mm</td><td>338</td><td>320</td>"
+                       "<td>5.6</td><td>131</td><td>meets every limit</td></tr>") == 1);
+    CHECK(count(table, "<th scope=\"col\">there by Düren (HV)</th><th scope=\"col\">by Yurioka (HV)</th>") == 1);
     CHECK(count(table, "<td>not below 100 °C in the run</td>") == 1);
     CHECK(count(table, "<th scope=\"col\">shortest time to 100 °C (s)</th>") == 1);
 }
@@ -143,7 +144,7 @@ TEST_CASE("the preheat report escapes every text it is given", "[preheat report]
 
 TEST_CASE("runs without values are left out of the figures and shown as n/a", "[preheat report]") {
     PreheatReportInput in = sample_input();
-    in.runs[3].hardness = none;
+    in.runs[3].hardness = in.runs[3].hardness_duren = in.runs[3].hardness_yurioka = none;
     in.runs[3].hardest_probe.clear();
     in.runs[3].t8_5 = none;
     for (auto& r : in.runs) r.time_to_100 = none;
@@ -159,7 +160,8 @@ TEST_CASE("runs without values are left out of the figures and shown as n/a", "[
     CHECK(count(html, "standard:") == 0);
     CHECK(count(html, "figure-preheat-hydrogen") == 0);  // no run cooled below 100 °C
     CHECK(count(html, "<svg") == 2);
-    CHECK(count(html, "<tr><td>50</td><td>n/a</td><td>n/a</td><td>n/a</td><td>not below 100 °C in the run</td>") == 1);
+    CHECK(count(html, "<tr><td>50</td><td>n/a</td><td>n/a</td><td>n/a</td><td>n/a</td><td>n/a</td><td>not below 100 °C "
+                      "in the run</td>") == 1);
     CHECK(count(html, "nan") == 0);
     CHECK(count(html, "inf") == 0);
 }

@@ -148,6 +148,11 @@ std::string to_text(const CheckReport& r) {
         out += line("Preheat     EN 1011-2 method B: %.0f degC%s (heatbead preheat finds it from the HAZ)", sp->formula,
                     sp->outside_validity.empty() ? "" : ", inputs outside its validity");
     }
+    if (r.carbon_equivalents) {
+        const auto& ps = c.preheat_search;
+        out += line("HAZ limit   %.0f HV: %s", ps.hardness_limit, ps.hardness_limit_source.c_str());
+        out += line("            heatbead preheat searches up to %.0f degC: %s", ps.highest, ps.highest_reason.c_str());
+    }
     if (const auto warnings = check_warnings(r); !warnings.empty()) {
         out += "Warnings\n";
         for (const auto& w : warnings) out += "  - " + w + "\n";

@@ -171,7 +171,7 @@ Rows table(const std::vector<Outcome>& outcomes) {
     });
     row("lowest preheat (simulation)", [](const Outcome& o, const Figures& f) {
         if (!o.preheat) return std::string("not searched");
-        if (!o.preheat->found) return "none up to " + or_na("%.0f degC", o.c->preheat_search.highest);
+        if (!o.preheat->found) return "not met up to " + or_na("%.0f degC", o.preheat->searched_to);
         const std::string across = !o.preheat_band           ? ""
                                    : o.preheat_band->across ? "; across the band " + or_na("%.0f degC", *o.preheat_band->across)
                                                             : "; across the band: not met";
@@ -225,8 +225,12 @@ std::vector<std::string> differences(const std::vector<Outcome>& outcomes) {
                           or_na("%.1f s", b_faster ? base.t85_lo : f.t85_lo) + ").");
         }
         if (std::isfinite(f.preheat) && std::isfinite(base.preheat) && f.preheat != base.preheat) {
+            // The limit follows each case's filler hydrogen unless set, so it may differ.
+            const double la = outcomes.front().c->preheat_search.hardness_limit, lb = outcomes[i].c->preheat_search.hardness_limit;
             out.push_back(b + " needs " + or_na("%.0f degC", std::abs(f.preheat - base.preheat)) +
-                          (f.preheat > base.preheat ? " more" : " less") + " preheat than " + a + " for the same hardness limit.");
+                          (f.preheat > base.preheat ? " more" : " less") + " preheat than " + a +
+                          (la == lb ? std::string(" for the same hardness limit.")
+                                    : " (hardness limits " + or_na("%.0f HV", lb) + " and " + or_na("%.0f HV", la) + ")."));
         }
     }
     return out;

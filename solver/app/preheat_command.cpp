@@ -13,6 +13,7 @@
 #include "solver/app/run_command.hpp"
 #include "solver/app/run_files.hpp"
 #include "solver/app/preheat_band_output.hpp"
+#include "solver/physics/procedure.hpp"
 #include "solver/studies/how_computed.hpp"
 
 #include <nlohmann/json.hpp>
@@ -52,10 +53,31 @@ std::optional<double> recommended(const PreheatAnswer& a, const Case& c) {
 
 std::string limits_text(const Case& c) {
     const auto& l = c.preheat_search;
-    std::string s = "hardness at most " + format_text("%.0f HV", l.hardness_limit);
+    std::string s = "hardness at most " + format_text("%.0f HV", l.hardness_limit) + " (" + l.hardness_limit_source + ")";
     if (l.min_t8_5) s += ", t8/5 at least " + format_text("%.2g s", *l.min_t8_5);
     if (l.min_time_to_100) s += ", time to 100 degC at least " + format_text("%.0f s", *l.min_time_to_100);
     return s + " at every hardened HAZ probe of the station";
+}
+
+// The search's verdict when nothing passed: how far it looked, why it stopped there, and what the
+// highest preheat tried misses and by how much.
+std::string not_met_text(const PreheatAnswer& a, const Case& c) {
+    const auto trials = by_preheat(a.trials);
+    const auto& top = trials.back();
+    return "not met up to " + format_text("%.0f degC", a.searched_to) + ", " + c.preheat_search.highest_reason +
+           "; at " + format_text("%.0f degC", top.preheat) + ": " + top.verdict;
+}
+
+// The range the search looked through, in stages, and why it ends where it does.
+std::string searched_text(const PreheatAnswer& a, const Case& c) {
+    const auto& spec = c.preheat_search;
+    std::string s = format_text("%.0f to ", spec.lowest);
+    if (a.searched_to > usual_preheat_top && !spec.highest_given && spec.lowest < usual_preheat_top) {
+        s += format_text("%.0f °C, where nothing passed, then on to ", usual_preheat_top);
+    }
+    s += format_text("%.0f °C", a.searched_to);
+    if (a.searched_to < spec.highest) return s + format_text(" (it would have gone on to %.0f °C had nothing passed: ", spec.highest) + spec.highest_reason + ")";
+    return s + ": " + spec.highest_reason;
 }
 
 // Plain words on what each answer rests on and why they differ here.
@@ -65,15 +87,19 @@ std::string explanation(const PreheatAnswer& a, const Case& c) {
     std::string s;
     if (!a.found) {
         const auto& top = trials.back();
-        s = "No preheat up to " + format_text("%.0f degC", top.preheat) + " meets the limits in the simulation (at " +
-            format_text("%.0f degC", top.preheat) + ": " + top.verdict + ").";
+        s = "In the simulation the limits are " + not_met_text(a, c) + ".";
         const double needed = critical_t8_5(*c.base.composition, c.preheat_search.hardness_limit, top.preheat);
         if (std::isfinite(needed) && needed > 0 && std::isfinite(top.t8_5)) {
             s += " For " + format_text("%.0f HV", c.preheat_search.hardness_limit) + " this steel needs a t8/5 of about " +
-                 format_text("%.1f s", needed) + " (hardness formula); this joint gives " + format_text("%.1f s", top.t8_5) + " there.";
+                 format_text("%.1f s", needed) + " (hardness formulas); this joint gives " + format_text("%.1f s", top.t8_5) + " there.";
         }
-        return s + " Preheat alone does not bring this joint within the limits: a higher heat input, a steel of "
-                   "lower carbon equivalent or a heat treatment under the governing code are the usual next steps.";
+        if (c.preheat_search.highest_given) {
+            return s + " No higher preheat was tried: raise preheat_search.highest to search further, up to what the "
+                       "steel tolerates.";
+        }
+        return s + " Preheat up to what this steel tolerates does not bring this joint within the limits: a higher "
+                   "heat input, a steel of lower carbon equivalent or a heat treatment under the governing code are "
+                   "the usual next steps.";
     }
     const auto at_found = std::find_if(trials.begin(), trials.end(), [&](const auto& t) { return t.preheat == *a.found; });
     s = "The simulation sets preheat by the hardness of the coarse-grained HAZ at this joint's own cooling: at " +
@@ -86,7 +112,7 @@ std::string explanation(const PreheatAnswer& a, const Case& c) {
     const double needed = critical_t8_5(*c.base.composition, c.preheat_search.hardness_limit, *a.found);
     if (std::isfinite(needed) && needed > 0) {
         s += " For " + format_text("%.0f HV", c.preheat_search.hardness_limit) + " this steel needs a t8/5 of about " +
-             format_text("%.1f s", needed) + " (hardness formula); a higher heat input lengthens t8/5 too.";
+             format_text("%.1f s", needed) + " (hardness formulas); a higher heat input lengthens t8/5 too.";
     }
     s += " EN 1011-2 method B is an empirical fit to hydrogen-cracking tests: it sets preheat from CET " +
          format_text("%.2f", a.standard.cet) + ", plate thickness " + format_text("%.0f mm", in.thickness) + ", diffusible hydrogen " +
@@ -98,11 +124,9 @@ std::string explanation(const PreheatAnswer& a, const Case& c) {
         s += " Here the two agree within 20 degC.";
     } else if (difference > 0) {
         s += " Here the simulation asks for more: this joint's HAZ cools fast enough that hardness, not hydrogen, "
-             "governs; the standard's fit does not see the heat flowing into both plates of a tee.";
-        if (c.preheat_search.hardness_limit <= 350 && in.hydrogen <= 5) {
-            s += " With a low-hydrogen consumable like this one, a HAZ limit of about 400 HV is often accepted "
-                 "(from memory); the governing code sets the limit (preheat_search.hardness_limit).";
-        }
+             "governs; the standard's fit does not see the heat flowing into both plates of a tee. The hardness "
+             "limit is " + c.preheat_search.hardness_limit_source + "; the governing code sets the limit "
+             "(preheat_search.hardness_limit).";
     } else {
         s += " Here the standard asks for more: at this hydrogen level and thickness it guards against hydrogen "
              "cracking in a HAZ that is not too hard, which a hardness limit alone does not see. Keep the "
@@ -116,7 +140,7 @@ std::string explanation(const PreheatAnswer& a, const Case& c) {
 }
 
 std::string runs_csv(const std::vector<PreheatTrial>& trials) {
-    std::string out = "preheat [degC],hardness [HV],hardest probe,t8/5 [s],time to 100 degC [s],meets hardness,"
+    std::string out = "preheat [degC],hardness [HV],hardest probe,Duren [HV],Yurioka [HV],t8/5 [s],time to 100 degC [s],meets hardness,"
                       "meets t8/5,meets time to 100 degC,passes,verdict,energy balance error [%],run time [s]\n";
     const auto num = [](double v, const char* format) { return std::isfinite(v) ? format_text(format, v) : std::string(); };
     const auto yes = [](bool b) { return std::string(b ? "yes" : "no"); };
@@ -124,7 +148,7 @@ std::string runs_csv(const std::vector<PreheatTrial>& trials) {
         std::string verdict = t.verdict;
         std::replace(verdict.begin(), verdict.end(), ',', ';');
         out += num(t.preheat, "%.1f") + "," + num(t.hardness, "%.1f") + "," + t.hardest_probe + "," +
-               num(t.t8_5, "%.3f") + "," + num(t.time_to_100, "%.1f") + "," + yes(t.meets_hardness) + "," +
+               num(t.hardness_duren, "%.1f") + "," + num(t.hardness_yurioka, "%.1f") + "," + num(t.t8_5, "%.3f") + "," + num(t.time_to_100, "%.1f") + "," + yes(t.meets_hardness) + "," +
                yes(t.meets_t8_5) + "," + yes(t.meets_time_to_100) + "," + yes(t.passes) + ",\"" + verdict + "\"," +
                num(t.energy_error * 100, "%.4f") + "," + num(t.wall_seconds, "%.1f") + "\n";
     }
@@ -135,7 +159,15 @@ std::vector<std::string> warnings(const PreheatAnswer& a, const Case& c) {
     std::vector<std::string> w;
     for (const auto& v : a.standard.outside_validity) w.push_back("EN 1011-2 method B: " + v);
     for (const auto& v : hardness_validity(*c.base.composition)) w.push_back("hardness estimate: " + v);
-    if (!a.search.monotone) {
+    if (a.found) {
+        if (auto hot = unusual_preheat_warning(*a.found); !hot.empty()) w.push_back("the simulation's answer: " + hot);
+        const auto trials = by_preheat(a.trials);
+        const auto at = std::find_if(trials.begin(), trials.end(), [&](const auto& t) { return t.preheat == *a.found; });
+        if (auto gap = hardness_disagreement(at->hardness_duren, at->hardness_yurioka); !gap.empty()) {
+            w.push_back("at " + format_text("%.0f degC", *a.found) + ", " + at->hardest_probe + ": " + gap);
+        }
+    }
+    if (!a.monotone) {
         w.push_back("the limits were not met monotonically with preheat (a higher preheat failed where a lower one "
                     "passed): the answer is the lowest pass above every failure; refine the grid and check");
     }
@@ -155,9 +187,15 @@ nlohmann::json to_json(const PreheatAnswer& a, const Case& c) {
     const auto finite = [](double v) { return std::isfinite(v) ? nlohmann::json(v) : nlohmann::json(nullptr); };
     j["case"] = c.file;
     j["limits"] = {{"hardness_limit_HV", c.preheat_search.hardness_limit},
+                   {"hardness_limit_source", c.preheat_search.hardness_limit_source},
                    {"min_t8_5_s", value(c.preheat_search.min_t8_5)},
                    {"min_time_to_100_s", value(c.preheat_search.min_time_to_100)}};
+    j["search"] = {{"lowest_degC", c.preheat_search.lowest},
+                   {"highest_degC", c.preheat_search.highest},
+                   {"highest_reason", c.preheat_search.highest_reason},
+                   {"searched_to_degC", a.searched_to}};
     j["simulation_preheat_degC"] = value(a.found);
+    j["not_met"] = a.found ? nlohmann::json(nullptr) : nlohmann::json(not_met_text(a, c));
     j["standard"] = {{"method", "EN 1011-2:2001 Annex C.3 method B"},
                      {"preheat_degC", a.standard.formula},
                      {"cet", a.standard.cet},
@@ -173,7 +211,8 @@ nlohmann::json to_json(const PreheatAnswer& a, const Case& c) {
     j["runs"] = nlohmann::json::array();
     for (const auto& t : by_preheat(a.trials)) {
         j["runs"].push_back({{"preheat_degC", t.preheat}, {"hardness_HV", finite(t.hardness)},
-                             {"hardest_probe", t.hardest_probe}, {"t8_5_s", finite(t.t8_5)},
+                             {"hardest_probe", t.hardest_probe}, {"hardness_duren_HV", finite(t.hardness_duren)},
+                             {"hardness_yurioka_HV", finite(t.hardness_yurioka)}, {"t8_5_s", finite(t.t8_5)},
                              {"time_to_100_s", finite(t.time_to_100)}, {"passes", t.passes}, {"verdict", t.verdict},
                              {"energy_balance_error", t.energy_error}, {"run_time_s", t.wall_seconds}});
     }
@@ -189,7 +228,8 @@ post::PreheatReportInput report_input(const PreheatAnswer& a, const Case& c) {
     r.created = now_utc();
     const auto rec = recommended(a, c);
     r.answer = {{"Limits", limits_text(c)},
-                {"Simulation (lowest preheat meeting the limits)", a.found ? format_text("%.0f °C", *a.found) : "none found"},
+                {"Searched", searched_text(a, c)},
+                {"Simulation (lowest preheat meeting the limits)", a.found ? format_text("%.0f °C", *a.found) : not_met_text(a, c)},
                 {"EN 1011-2 method B", format_text("%.0f °C", a.standard.formula) +
                                            (a.standard.formula < c.preheat_search.lowest ? " (no preheat)" : "")},
                 {"Recommended minimum preheat and interpass", rec ? format_text("%.0f °C", *rec) : "none: see below"}};
@@ -205,9 +245,11 @@ post::PreheatReportInput report_input(const PreheatAnswer& a, const Case& c) {
                 {"Plate thickness for the standard", format_text("%.1f mm (the thicker plate)", a.standard_input.thickness)},
                 {"Diffusible hydrogen", format_text("%.1f ml/100 g", a.standard_input.hydrogen)},
                 {"Heat input (EN 1011-1)", format_text("%.3f kJ/mm", a.standard_input.heat_input)},
-                {"Hardness estimate", "Düren (1986) from t8/5, bounded by the Maynier et al. (1978) phase hardnesses"}};
+                {"Hardness estimate", "the higher of Düren (1986) from t8/5, bounded by the Maynier et al. (1978) "
+                                      "phase hardnesses, and Yurioka et al. (1987) from t8/5 (coefficients of both from memory)"}};
     for (const auto& t : a.trials) {
-        r.runs.push_back({t.preheat, t.hardness, t.hardest_probe, t.t8_5, t.time_to_100, t.passes, t.verdict});
+        r.runs.push_back({t.preheat, t.hardness, t.hardest_probe, t.hardness_duren, t.hardness_yurioka, t.t8_5,
+                          t.time_to_100, t.passes, t.verdict});
     }
     r.hardness_limit = c.preheat_search.hardness_limit;
     r.min_t8_5 = c.preheat_search.min_t8_5;
@@ -226,8 +268,9 @@ post::PreheatReportInput report_input(const PreheatAnswer& a, const Case& c) {
 void print_round(const std::vector<PreheatTrial>& trials, std::size_t from) {
     for (std::size_t i = from; i < trials.size(); ++i) {
         const auto& t = trials[i];
-        std::printf("  %6.0f degC  %5s HV  %-20s  t8/5 %6s s  to 100 degC %7s s  %s\n", t.preheat,
-                    or_na("%.0f", t.hardness).c_str(), t.hardest_probe.c_str(), or_na("%.2f", t.t8_5).c_str(),
+        std::printf("  %6.0f degC  %5s HV (Duren %3s, Yurioka %3s)  %-20s  t8/5 %6s s  to 100 degC %7s s  %s\n", t.preheat,
+                    or_na("%.0f", t.hardness).c_str(), or_na("%.0f", t.hardness_duren).c_str(),
+                    or_na("%.0f", t.hardness_yurioka).c_str(), t.hardest_probe.c_str(), or_na("%.2f", t.t8_5).c_str(),
                     or_na("%.0f", t.time_to_100).c_str(), t.passes ? "pass" : ("FAIL: " + t.verdict).c_str());
     }
     std::fflush(stdout);
@@ -249,8 +292,14 @@ int preheat_command(const LoadedCase& loaded, const PreheatOptions& options) {
         std::printf("heatbead preheat  %s  (%d run%s at a time, %d thread%s each)\n", c.file.c_str(), jobs,
                     jobs == 1 ? "" : "s", threads, threads == 1 ? "" : "s");
         std::printf("Limits      %s\n", limits_text(c).c_str());
-        std::printf("Searching   %.0f to %.0f degC in steps of %.0f K\n", c.preheat_search.lowest,
-                    c.preheat_search.highest, c.preheat_search.resolution);
+        const auto& spec = c.preheat_search;
+        if (!spec.highest_given && spec.lowest < usual_preheat_top && spec.highest > usual_preheat_top) {
+            std::printf("Searching   %.0f to %.0f degC in steps of %.0f K; if nothing passes, on to %.0f degC (%s)\n",
+                        spec.lowest, usual_preheat_top, spec.resolution, spec.highest, spec.highest_reason.c_str());
+        } else {
+            std::printf("Searching   %.0f to %.0f degC in steps of %.0f K (%s)\n", spec.lowest, spec.highest,
+                        spec.resolution, spec.highest_reason.c_str());
+        }
         std::fflush(stdout);
     }
     const auto runs_file = out / "preheat_runs.csv";
@@ -293,7 +342,7 @@ int preheat_command(const LoadedCase& loaded, const PreheatOptions& options) {
         const auto rec = recommended(answer, c);
         std::printf("Runs        %zu in %.0f s\n", answer.trials.size(), wall);
         std::printf("Simulation  %s\n", answer.found ? ("lowest preheat meeting the limits: " + format_text("%.0f degC", *answer.found)).c_str()
-                                                     : "no preheat in the range meets the limits");
+                                                     : not_met_text(answer, c).c_str());
         if (band) {
             for (const auto& line : band_lines(*band)) std::printf("Band        %s\n", line.c_str());
         }
@@ -301,7 +350,7 @@ int preheat_command(const LoadedCase& loaded, const PreheatOptions& options) {
                     answer.standard.cet, in.thickness, in.hydrogen, in.heat_input, answer.standard.formula,
                     answer.standard.formula < c.preheat_search.lowest ? " (no preheat)" : "");
         std::printf("Recommended %s\n", rec ? ("minimum preheat and interpass " + format_text("%.0f degC", *rec)).c_str()
-                                            : "none: preheat alone does not meet the limits");
+                                            : format_text("none: the limits are not met up to %.0f degC (above)", answer.searched_to).c_str());
         std::printf("Carbon eq.  CE(IIW) %.3f, Pcm %.3f, CEN %.3f, CET %.3f\n", ce.iiw, ce.pcm, ce.cen, ce.cet);
         std::printf("Why         %s\n", explanation(answer, c).c_str());
         for (const auto& w : warnings(answer, c)) std::printf("Warning     %s\n", w.c_str());

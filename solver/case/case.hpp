@@ -9,6 +9,7 @@
 #include "solver/physics/heat_source.hpp"
 #include "solver/physics/procedure.hpp"
 #include "solver/weldability/composition.hpp"
+#include "solver/weldability/preheat_limits.hpp"
 
 #include <array>
 #include <optional>
@@ -27,6 +28,8 @@ struct MaterialSpec {
     double latent_heat = 277e3;              // J/kg
     double liquid_conductivity_factor = 1;   // k multiplier above liquidus (stand-in for pool stirring)
     std::optional<Composition> composition;  // needed by metallurgy outputs only
+    SteelType steel_type = SteelType::c_mn;     // base only: sets the highest preheat searched
+    std::optional<double> tempering_temperature;  // °C, base only, quenched-and-tempered steel
     std::optional<double> diffusible_hydrogen;  // ml/100 g deposited metal (filler only)
 };
 
@@ -70,10 +73,14 @@ struct OutputSpec {
 // and, where given, cools from 800 to 500 °C no faster than `min_t8_5` and stays above 100 °C for
 // at least `min_time_to_100` (time for hydrogen to diffuse out).
 struct PreheatSearchSpec {
-    double hardness_limit = 350;            // HV
+    double hardness_limit = 350;            // HV: the case's, or by the filler's hydrogen
+    std::string hardness_limit_source;      // where it comes from, in words
     std::optional<double> min_t8_5;         // s
     std::optional<double> min_time_to_100;  // s
-    double lowest = 20, highest = 250;      // degC
+    double lowest = 20;                     // degC
+    double highest = 400;                   // degC: the case's, or the steel's ceiling
+    bool highest_given = false;             // set in the case (then the search keeps to it)
+    std::string highest_reason;             // why the search stops at `highest`, in words
     double resolution = 5;                  // K
 };
 

@@ -143,11 +143,27 @@ void read_thermal_properties(Section& s, MaterialSpec& m, const std::string& cas
     m.liquid_conductivity_factor = s.number("liquid_conductivity_factor", 1.0, Bounds::closed(1, 10));
 }
 
+// What kind of steel the base metal is: it sets the highest preheat the search may try.
+void read_steel_type(Section& s, MaterialSpec& m) {
+    m.steel_type = enum_of<SteelType>(steel_type_names, s.choice("steel_type", steel_type_names, "c_mn"));
+    m.tempering_temperature = s.optional_quantity("tempering_temperature", Dimension::temperature, "degC",
+                                                  Bounds::closed(300, 750));
+    if (m.steel_type == SteelType::quenched_tempered && !m.tempering_temperature) {
+        s.error("steel_type", "\"quenched_tempered\" needs base_metal.tempering_temperature: the temperature the "
+                              "plate was tempered at (its certificate gives it), which preheat must not pass");
+    } else if (m.steel_type != SteelType::quenched_tempered && m.tempering_temperature) {
+        s.error("tempering_temperature", "only for steel_type = \"quenched_tempered\"");
+    }
+}
+
 MaterialSpec read_material(CaseDocument& doc, std::string_view section, bool filler) {
     auto s = doc.section(section, false);
     MaterialSpec m;
     m.grade = s.text("grade", "unspecified");
-    if (!filler) read_thermal_properties(s, m, doc.path());
+    if (!filler) {
+        read_thermal_properties(s, m, doc.path());
+        read_steel_type(s, m);
+    }
     m.composition = read_composition(s);
     if (filler) {
         m.diffusible_hydrogen =
@@ -393,15 +409,29 @@ void read_output(Case& c, CaseDocument& doc) {
 void read_preheat_search(Case& c, CaseDocument& doc) {
     auto s = doc.section("preheat_search", false);
     auto& p = c.preheat_search;
-    // 350 HV is the usual HAZ limit against hydrogen cracking (from memory); sour service sets
-    // lower ones (ISO 15156-2: 250 HV in the weld zone).
-    p.hardness_limit = s.number("hardness_limit", 350.0, Bounds::closed(150, 600));
+    // By default the limit follows the filler's hydrogen (solver/weldability/preheat_limits.hpp);
+    // sour service and other codes set their own (ISO 15156-2: 250 HV in the weld zone).
+    const HardnessLimit by_hydrogen = hardness_limit_for(c.filler.diffusible_hydrogen);
+    const bool limit_given = s.has("hardness_limit");
+    p.hardness_limit = s.number("hardness_limit", by_hydrogen.hv, Bounds::closed(150, 600));
+    p.hardness_limit_source = limit_given ? "set in the case (preheat_search.hardness_limit)" : by_hydrogen.source;
     p.min_t8_5 = s.optional_quantity("min_t8_5", Dimension::time, "s", Bounds{0, 1000, true, false});
     p.min_time_to_100 = s.optional_quantity("min_time_to_100", Dimension::time, "s", Bounds{0, 1e5, true, false});
     p.lowest = s.quantity("lowest", Dimension::temperature, "degC", c.temperatures.ambient,
-                          Bounds::closed(c.temperatures.ambient, 400));
-    p.highest = s.quantity("highest", Dimension::temperature, "degC", std::max(250.0, p.lowest),
-                           Bounds::closed(c.temperatures.ambient, 400));
+                          Bounds::closed(c.temperatures.ambient, highest_judged_preheat));
+    // By default the search may go up to the highest preheat the steel tolerates (a
+    // quenched-and-tempered steel without its tempering temperature is an error above).
+    const bool tempering_known = c.base.steel_type == SteelType::c_mn || c.base.tempering_temperature;
+    const PreheatCeiling ceiling =
+        tempering_known ? preheat_ceiling(c.base.steel_type, c.base.tempering_temperature) : PreheatCeiling{};
+    p.highest_given = s.has("highest");
+    p.highest = s.quantity("highest", Dimension::temperature, "degC", ceiling.temperature,
+                           Bounds::closed(c.temperatures.ambient, highest_judged_preheat));
+    p.highest_reason = p.highest_given ? "the preheat_search.highest you set" : ceiling.reason;
+    if (p.highest_given && std::isfinite(p.highest) && p.highest > ceiling.temperature) {
+        doc.warn(format_text("preheat_search.highest %.0f degC is above the %.0f degC this steel tolerates (",
+                             p.highest, ceiling.temperature) + ceiling.reason + ")");
+    }
     p.resolution = s.number("resolution", 5.0, Bounds::closed(1, 50));
     if (std::isfinite(p.lowest) && std::isfinite(p.highest) && p.highest <= p.lowest) {
         s.error("highest", "must be above lowest (" + std::to_string(static_cast<int>(p.lowest)) + " degC)");

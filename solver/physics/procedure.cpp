@@ -157,16 +157,19 @@ double spray_transition_current(double wire_diameter) {
     return table.back()[1];
 }
 
+std::string unusual_preheat_warning(double preheat) {
+    if (preheat <= unusual_preheat) return "";
+    return format_text("preheat %.0f degC is above %.0f degC: unusual; check the steel's tempering limits", preheat,
+                       unusual_preheat);
+}
+
 std::vector<std::string> plausibility_warnings(const WeldSetup& c) {
     std::vector<std::string> w;
     const auto& p = c.procedure;
     const double q_kj_mm = heat_input(p) * 1e-6;
     if (q_kj_mm > 5.0) w.push_back(format_text("heat input %.2f kJ/mm is above 5 kJ/mm: unusual for a fillet pass", q_kj_mm));
     if (p.travel_speed < 1e-3) w.push_back(format_text("travel speed %.2f mm/s is below 1 mm/s: unusual", p.travel_speed * 1e3));
-    if (c.preheat > 300) {
-        w.push_back(format_text("preheat %.0f degC is above 300 degC: unusual; check the steel's tempering limits",
-                                c.preheat));
-    }
+    if (auto hot = unusual_preheat_warning(c.preheat); !hot.empty()) w.push_back(std::move(hot));
     const bool spray_like = p.transfer == Transfer::spray || p.transfer == Transfer::globular;
     if (p.transfer == Transfer::spray && p.wire_diameter > 0) {
         const double transition = spray_transition_current(p.wire_diameter);

@@ -109,5 +109,9 @@ double spray_transition_current(double wire_diameter);
 
 // Warnings for unusual but possible procedures (each cites its basis).
 std::vector<std::string> plausibility_warnings(const WeldSetup& c);
+// Above this preheat [°C] a preheat is unusual (common practice, no source): check and the preheat
+// search warn of it in the same words (empty below it).
+inline constexpr double unusual_preheat = 300;
+std::string unusual_preheat_warning(double preheat);
 
 }  // namespace heatbead

@@ -5,6 +5,7 @@
 #include "solver/physics/procedure.hpp"
 #include "solver/studies/run_analysis.hpp"
 #include "solver/studies/run_setup.hpp"
+#include "solver/weldability/haz_hardness.hpp"
 
 #include <chrono>
 #include <cmath>
@@ -73,7 +74,7 @@ std::vector<BandVariant> band_variants(const Case& c) {
 }
 
 Band combine_band(double value, const std::vector<double>& answers, const std::vector<BandVariant>& variants,
-                  double scatter) {
+                  ModelScatter scatter) {
     Band b;
     b.value = value;
     b.scatter = scatter;
@@ -81,7 +82,7 @@ Band combine_band(double value, const std::vector<double>& answers, const std::v
         b.reason = "no value";
         return b;
     }
-    double sum = scatter * scatter;
+    double sum = 0;
     for (std::size_t i = 0; i < variants.size(); ++i) {
         const double shift = answers[i] - value;
         b.shifts.push_back(shift);
@@ -98,13 +99,14 @@ Band combine_band(double value, const std::vector<double>& answers, const std::v
     }
     if (!b.ok()) return b;
     b.inputs = std::sqrt(sum);
-    b.low = value - b.inputs - b.grid;
-    b.high = value + b.inputs + b.grid;
+    b.low = value - std::hypot(b.inputs, scatter.below) - b.grid;
+    b.high = value + std::hypot(b.inputs, scatter.above) + b.grid;
     return b;
 }
 
 AnswerBands make_bands(const Case& c, const mesh::Grid& grid, const Material& material, const Answers& nominal,
-                       const std::map<std::string, double>& scatter, const EvaluateRun& evaluate, int jobs, int threads) {
+                       const std::map<std::string, ModelScatter>& scatter, const EvaluateRun& evaluate, int jobs,
+                       int threads) {
     const auto start = std::chrono::steady_clock::now();
     const std::vector<BandVariant> variants = band_variants(c);
     std::vector<std::unique_ptr<mesh::Grid>> own(variants.size());
@@ -128,11 +130,25 @@ AnswerBands make_bands(const Case& c, const mesh::Grid& grid, const Material& ma
             values.push_back(it == a.end() ? no_value : it->second);
         }
         const auto s = scatter.find(key);
-        out.bands[key] = combine_band(value, values, variants, s == scatter.end() ? 0 : s->second);
+        out.bands[key] = combine_band(value, values, variants, s == scatter.end() ? ModelScatter{} : s->second);
     }
     out.runs = variants.size();
     out.wall = std::chrono::duration<double>(std::chrono::steady_clock::now() - start).count();
     return out;
+}
+
+ModelScatter hardness_model_scatter(double judged, double duren, double yurioka) {
+    const double widest = std::max(duren_scatter, yurioka_scatter);
+    if (!std::isfinite(judged)) return {widest, widest};
+    double top = judged + widest, bottom = judged - widest;
+    bool any = false;
+    for (const auto& [estimate, scatter] : {std::pair{duren, duren_scatter}, std::pair{yurioka, yurioka_scatter}}) {
+        if (!std::isfinite(estimate)) continue;
+        top = any ? std::max(top, estimate + scatter) : estimate + scatter;
+        bottom = any ? std::min(bottom, estimate - scatter) : estimate - scatter;
+        any = true;
+    }
+    return {judged - bottom, top - judged};
 }
 
 Answers run_answers(const post::Summary& s) {
@@ -153,7 +169,13 @@ Answers evaluate_run(const Case& c, const mesh::Grid& grid, const Material& mate
 
 AnswerBands run_bands(const Case& c, const mesh::Grid& grid, const Material& material, const post::Summary& nominal,
                       int jobs, int threads, const std::atomic<bool>& interrupt) {
-    return make_bands(c, grid, material, run_answers(nominal), {{"haz_hardness_max", hardness_model_scatter}},
+    const auto value = [&](const char* key) {
+        const post::SummaryItem* i = nominal.find(key);
+        return i && !i->missing() ? *i->value : no_value;
+    };
+    const ModelScatter scatter = hardness_model_scatter(value("haz_hardness_max"), value("haz_hardness_duren"),
+                                                  value("haz_hardness_yurioka"));
+    return make_bands(c, grid, material, run_answers(nominal), {{"haz_hardness_max", scatter}},
                       [&](const Case& v, const mesh::Grid& g, const Material& m) { return evaluate_run(v, g, m, interrupt); },
                       jobs, threads);
 }
@@ -222,7 +244,9 @@ post::BandsView bands_view(const std::vector<std::string>& names, const std::vec
                               : grid && b->ok()           ? format_text("%.*f", i->decimals, b->grid)
                                                           : shift_text(b->shifts[v], i->decimals));
             }
-            row.push_back(b && b->scatter > 0 ? format_text("±%.*f", i->decimals, b->scatter) : "");
+            row.push_back(!b || (b->scatter.below == 0 && b->scatter.above == 0)
+                              ? ""
+                              : format_text("-%.*f, +%.*f", i->decimals, b->scatter.below, i->decimals, b->scatter.above));
             view.rows.push_back(std::move(row));
         }
         if (!answer.runs.empty()) view.answers.push_back(std::move(answer));
@@ -239,7 +263,8 @@ post::BandFacts band_facts(const Case& c) {
     f.source_spread = c.bands.source_spread;
     f.source_source = c.bands.source_spread_source;
     f.hardness = c.base.composition.has_value();
-    f.hardness_scatter = hardness_model_scatter;
+    f.duren_scatter = duren_scatter;
+    f.yurioka_scatter = yurioka_scatter;
     f.grid_ratio = band_grid_ratio;
     f.grid_order = band_grid_order;
     f.grid_safety = band_grid_safety;

@@ -9,13 +9,13 @@
 // the same four inputs would take eight or sixteen; it misses the inputs' interactions, which are of
 // second order in the spreads. The shifts combine by the first-order law of propagation of
 // uncertainty for independent inputs (GUM, JCGM 100:2008 §5.1.2, from memory):
-//     u = √(Σ Δᵢ² + s²)
-// with s a model's own scatter (the hardness formula's). The grid: one more run on a grid of twice
+//     u = √(Σ Δᵢ² + s²)   (u_low with the scatter below, u_high with the scatter above)
+// with s a model's own scatter (the hardness formulas', below; on each side its own). The grid: one more run on a grid of twice
 // the spacing (finest, coarsest floor and along the weld), and Roache's grid convergence index of
 // the answer at the run's spacing h, a Richardson estimate of its grid error with a safety factor
 // (Roache 1994, J. Fluids Eng. 116, 405, from memory):
 //     |E| = F_s·|f_h − f_2h| / (2^p − 1),   F_s = 3 for two grids, p = 2 (the scheme's order),
-// added to both sides: band = f_h ± (u + |E|). Two grids cannot see convergence that is not
+// added to both sides: band = f_h − (u_low + |E|) to f_h + (u_high + |E|). Two grids cannot see convergence that is not
 // monotone (README, Performance: the web penetration on the reference tee), which is why the two-grid
 // index carries the larger safety factor and why its sign is not trusted.
 // A variant keeps the nominal case's derived source: the arc efficiency moves the power only, the
@@ -56,9 +56,17 @@ inline constexpr std::array<BandedKey, 7> banded_answers{{{"penetration_flange",
                                                           {"cooling_rate_540", "fastest cooling at 540 degC"},
                                                           {"haz_hardness_max", "HAZ hardness, highest"}}};
 
-// Düren's formula against measured HAZ hardness: ±30 HV (from memory; the spread usually quoted for
-// carbon-equivalent hardness formulas), the hardness model's own part of its band.
-inline constexpr double hardness_model_scatter = 30;
+// A model's own scatter, below and above the value it gives (0 for answers without a model).
+struct ModelScatter {
+    double below = 0, above = 0;
+};
+// The hardness models' own part of a hardness band: the band holds each formula's estimate within
+// its own scatter (Düren ±30 HV, Yurioka ±25 HV, one standard deviation each, from memory;
+// solver/weldability/haz_hardness.hpp) around the value judged, the higher of the two, HV:
+//     above = max(HV_D + s_D, HV_Y + s_Y) − HV,   below = HV − min(HV_D − s_D, HV_Y − s_Y)
+// so where the formulas disagree the band reaches down to the lower one. An estimate that is not
+// finite leaves the larger scatter each way.
+ModelScatter hardness_model_scatter(double judged, double duren, double yurioka);
 
 // An input the band moves, in words.
 struct BandInput {
@@ -85,16 +93,16 @@ constexpr double no_value = std::numeric_limits<double>::quiet_NaN();
 struct Band {
     double value = no_value, low = no_value, high = no_value;
     std::vector<double> shifts;  // per variant: its answer minus the value (NaN where it has none)
-    double inputs = 0;           // u: √(Σ Δᵢ² + s²) over the inputs (the grid's variant not among them)
+    double inputs = 0;           // √(Σ Δᵢ²) over the inputs (the grid's variant not among them)
     double grid = 0;             // |E|, the grid convergence index
-    double scatter = 0;          // s
+    ModelScatter scatter;        // s below and above
     std::string reason;          // why there is no band; empty when there is one
     bool ok() const { return reason.empty(); }
 };
 
 // The band of one answer: `value` the nominal run's, `answers` the variants' in their order.
 Band combine_band(double value, const std::vector<double>& answers, const std::vector<BandVariant>& variants,
-                  double scatter);
+                  ModelScatter scatter);
 
 struct AnswerBands {
     std::vector<BandInput> inputs;      // the variants' inputs, in the order of Band::shifts
@@ -114,7 +122,8 @@ struct BandsInterrupted : std::runtime_error {
 // `evaluate`) and bands every answer of `nominal`; `scatter` adds a model's own scatter by key.
 // The coarser grid is built once. `evaluate` throws BandsInterrupted when `interrupt` is set.
 AnswerBands make_bands(const Case& c, const mesh::Grid& grid, const Material& material, const Answers& nominal,
-                       const std::map<std::string, double>& scatter, const EvaluateRun& evaluate, int jobs, int threads);
+                       const std::map<std::string, ModelScatter>& scatter, const EvaluateRun& evaluate, int jobs,
+                       int threads);
 
 // The banded answers a run's summary gives.
 Answers run_answers(const post::Summary& summary);

@@ -2,6 +2,7 @@
 
 #include "solver/core/text.hpp"
 #include "solver/studies/answer_bands.hpp"
+#include "solver/weldability/haz_hardness.hpp"
 
 namespace heatbead {
 
@@ -21,14 +22,13 @@ post::MethodFacts method_facts(const Case& c, std::optional<std::size_t> solid_c
                            s.origin_at_root ? "root" : "bead face") +
                s.rule;
     f.hardness = c.base.composition.has_value();
-    f.hardness_model = format_text("Düren (1986, IIW Doc. IX-1437-86; coefficients from memory) from each probe's "
-                                   "t8/5, bounded by the Maynier, Dollet & Bastien (1978) phase hardnesses at its "
-                                   "cooling rate at 700 degC; scatter ±%.0f HV (from memory)",
-                                   hardness_model_scatter);
-    f.hardness_brief = "Düren 1986 (coefficients from memory)";
-    f.hardness_limit = format_text("%.0f HV (preheat_search.hardness_limit; 350 HV is the usual limit against "
-                                   "hydrogen cracking, from memory)",
-                                   c.preheat_search.hardness_limit);
+    f.hardness_model = format_text("the higher of Düren (1986, IIW Doc. IX-1437-86), bounded by the Maynier, Dollet & "
+                                   "Bastien (1978) phase hardnesses, and Yurioka et al. (1987), from each probe's "
+                                   "own cooling; coefficients from memory; scatter ±%.0f HV and ±%.0f HV (from memory)",
+                                   duren_scatter, yurioka_scatter);
+    f.hardness_brief = "the higher of Düren 1986 and Yurioka 1987 (coefficients from memory), limit " +
+                       format_text("%.0f HV", c.preheat_search.hardness_limit);
+    f.hardness_limit = format_text("%.0f HV: ", c.preheat_search.hardness_limit) + c.preheat_search.hardness_limit_source;
     f.bands = post::bands_words(band_facts(c));
     return f;
 }

@@ -55,7 +55,8 @@ public:
         k.preheat = nominal.preheat;
         k.nominal = trial_answers(nominal);
         k.bands = make_bands(
-            c_, grid_, material_, k.nominal, {{"hardness", hardness_model_scatter}},
+            c_, grid_, material_, k.nominal,
+            {{"hardness", hardness_model_scatter(nominal.hardness, nominal.hardness_duren, nominal.hardness_yurioka)}},
             [&](const Case& v, const mesh::Grid& g, const Material& m) {
                 return trial_answers(run_preheat_trial(v, g, m, k.preheat, threads_, interrupt_));
             },

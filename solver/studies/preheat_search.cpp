@@ -11,6 +11,7 @@
 #include <chrono>
 #include <cmath>
 #include <limits>
+#include <map>
 #include <omp.h>
 
 namespace heatbead {
@@ -38,11 +39,14 @@ Case at_preheat(const Case& base, double preheat) {
 
 void judge(PreheatTrial& t, const Case& c, const RunAnalysis& a, double end_time) {
     const auto& limits = c.preheat_search;
-    t.hardness = t.t8_5 = t.time_to_100 = nan;
+    t.hardness = t.t8_5 = t.time_to_100 = t.hardness_duren = t.hardness_yurioka = nan;
     double held_above_100 = std::numeric_limits<double>::infinity();  // s since the peak, for probes still above
     for (const auto& p : a.probes) {
         if (std::isnan(p.hardness)) continue;
-        if (std::isnan(t.hardness) || p.hardness > t.hardness) t.hardness = p.hardness, t.hardest_probe = p.name;
+        if (std::isnan(t.hardness) || p.hardness > t.hardness) {
+            t.hardness = p.hardness, t.hardest_probe = p.name;
+            t.hardness_duren = p.hardness_duren, t.hardness_yurioka = p.hardness_yurioka;
+        }
         t.t8_5 = std::isnan(t.t8_5) ? p.figures.t8_5 : std::min(t.t8_5, p.figures.t8_5);
         if (std::isfinite(p.figures.time_to_100)) {
             t.time_to_100 = std::isnan(t.time_to_100) ? p.figures.time_to_100 : std::min(t.time_to_100, p.figures.time_to_100);
@@ -55,14 +59,21 @@ void judge(PreheatTrial& t, const Case& c, const RunAnalysis& a, double end_time
         missed.push_back("no HAZ probe at the station reached Ac3 (no fusion line?): nothing to judge");
     } else {
         t.meets_hardness = t.hardness <= limits.hardness_limit;
-        if (!t.meets_hardness) missed.push_back(format_text("%.0f HV above %.0f HV", t.hardness, limits.hardness_limit));
+        if (!t.meets_hardness) {
+            missed.push_back(format_text("hardness %.0f HV, %.0f HV over the %.0f HV limit", t.hardness,
+                                         t.hardness - limits.hardness_limit, limits.hardness_limit));
+        }
         t.meets_t8_5 = !limits.min_t8_5 || t.t8_5 >= *limits.min_t8_5;
-        if (!t.meets_t8_5) missed.push_back(format_text("t8/5 %.2f s below %.2f s", t.t8_5, *limits.min_t8_5));
+        if (!t.meets_t8_5) {
+            missed.push_back(format_text("t8/5 %.2f s, %.2f s short of the %.2f s asked", t.t8_5, *limits.min_t8_5 - t.t8_5,
+                                         *limits.min_t8_5));
+        }
         // Held at or above 100 °C (preheat of 100 °C or more) counts as meeting a hydrogen-diffusion time.
         const double shortest = std::isnan(t.time_to_100) ? held_above_100 : std::min(t.time_to_100, held_above_100);
         t.meets_time_to_100 = !limits.min_time_to_100 || t.preheat >= 100 || shortest >= *limits.min_time_to_100;
         if (!t.meets_time_to_100) {
-            missed.push_back(format_text("time to 100 degC %.0f s below %.0f s", shortest, *limits.min_time_to_100));
+            missed.push_back(format_text("time to 100 degC %.0f s, %.0f s short of the %.0f s asked", shortest,
+                                         *limits.min_time_to_100 - shortest, *limits.min_time_to_100));
         }
     }
     t.passes = missed.empty();
@@ -125,22 +136,38 @@ PreheatAnswer find_preheat(const Case& c, int jobs, int threads_per_trial, const
     const mesh::Grid grid = mesh::build_grid(c.joint, c.grid);
     const Material material = make_material(c.base);
     const auto& spec = c.preheat_search;
-    const Ladder ladder{spec.lowest, spec.highest, spec.resolution};
+    // Each preheat is run once, whichever stage asks for it.
+    std::map<double, bool> passed_at;
     const auto test = [&](const std::vector<double>& candidates) {
-        std::vector<PreheatTrial> done(candidates.size());
-        run_side_by_side(0, candidates.size(), [&](std::size_t i) {
-            done[i] = run_preheat_trial(c, grid, material, candidates[i], threads_per_trial, interrupt);
-        });
-        std::vector<bool> passed;
-        for (std::size_t i = 0; i < candidates.size(); ++i) {
-            answer.trials.push_back(done[i]);
-            passed.push_back(done[i].passes);
+        std::vector<double> fresh;
+        for (double p : candidates) {
+            if (!passed_at.contains(p)) fresh.push_back(p);
         }
-        if (on_trial) on_trial(answer.trials);
+        std::vector<PreheatTrial> done(fresh.size());
+        run_side_by_side(0, fresh.size(), [&](std::size_t i) {
+            done[i] = run_preheat_trial(c, grid, material, fresh[i], threads_per_trial, interrupt);
+        });
+        for (auto& t : done) {
+            passed_at[t.preheat] = t.passes;
+            answer.trials.push_back(std::move(t));
+        }
+        if (on_trial && !fresh.empty()) on_trial(answer.trials);
+        std::vector<bool> passed;
+        for (double p : candidates) passed.push_back(passed_at.at(p));
         return passed;
     };
-    answer.search = find_lowest_passing(ladder, static_cast<std::size_t>(std::max(jobs, 1)), test);
-    if (answer.search.lowest_passing) answer.found = ladder.at(*answer.search.lowest_passing);
+    const bool staged = !spec.highest_given && spec.lowest < usual_preheat_top && spec.highest > usual_preheat_top;
+    std::vector<Ladder> stages{{spec.lowest, staged ? usual_preheat_top : spec.highest, spec.resolution}};
+    if (staged) stages.push_back({usual_preheat_top, spec.highest, spec.resolution});
+    for (const Ladder& ladder : stages) {
+        answer.search = find_lowest_passing(ladder, static_cast<std::size_t>(std::max(jobs, 1)), test);
+        answer.monotone = answer.monotone && answer.search.monotone;
+        answer.searched_to = ladder.highest;
+        if (answer.search.lowest_passing) {
+            answer.found = ladder.at(*answer.search.lowest_passing);
+            break;
+        }
+    }
     return answer;
 }
 

@@ -25,11 +25,13 @@ struct PreheatTrial {
     double preheat = 0;      // °C, also the interpass temperature of a second pass
     double hardness = 0;     // HV: highest estimate over the hardened HAZ probes (NaN: none)
     std::string hardest_probe;
+    double hardness_duren = 0, hardness_yurioka = 0;  // HV: the two formulas at that probe
     double t8_5 = 0;         // s: shortest over the hardened probes (NaN: none)
     double time_to_100 = 0;  // s: shortest over them (NaN: none cooled below 100 °C in the run)
     bool meets_hardness = false, meets_t8_5 = false, meets_time_to_100 = false;
     bool passes = false;
-    std::string verdict;      // "meets every limit", or the limits missed, in words
+    // "meets every limit", or the limits missed and by how much, in words
+    std::string verdict;
     double energy_error = 0;  // of the run (a fraction)
     double wall_seconds = 0;
 };
@@ -43,10 +45,16 @@ struct SearchInterrupted : std::runtime_error {
     SearchInterrupted() : std::runtime_error("the preheat search was interrupted") {}
 };
 
+// Without preheat_search.highest the search looks up to this preheat [°C] first, the usual range;
+// only when nothing there passes does it go on up to the steel's ceiling.
+inline constexpr double usual_preheat_top = 250;
+
 struct PreheatAnswer {
     std::vector<PreheatTrial> trials;  // in the order they finished
-    LadderSearch search;
+    LadderSearch search;               // of the last stage searched
+    bool monotone = true;              // over every stage (LadderSearch::monotone)
     std::optional<double> found;       // °C: lowest preheat meeting every limit
+    double searched_to = 0;            // °C: the highest candidate of the stages searched
     StandardPreheatInput standard_input;
     StandardPreheat standard;
 };
@@ -60,7 +68,10 @@ StandardPreheatInput standard_preheat_input(const Case& c);
 void require_preheat_inputs(const Case& c);
 
 // Runs the search: `jobs` trials at a time, each with `threads_per_trial` threads; `on_trial` is
-// called (from the calling thread) after each round with every trial finished so far.
+// called (from the calling thread) after each round with every trial finished so far. With
+// preheat_search.highest set, one stage from lowest to it; without, lowest to usual_preheat_top
+// and, when nothing there passes, on from there to the steel's ceiling (the runs already made are
+// not made again).
 PreheatAnswer find_preheat(const Case& c, int jobs, int threads_per_trial, const std::atomic<bool>& interrupt,
                            const std::function<void(const std::vector<PreheatTrial>&)>& on_trial = {});
 

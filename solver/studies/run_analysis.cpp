@@ -50,6 +50,7 @@ std::string estimate_hardness(const Case& c, double ac3, ProbeResult& p) {
     if (std::isnan(f.rate_700)) return "no cooling rate at 700 degC: " + f.no_rate_700;
     const HardnessEstimate h = haz_hardness(*c.base.composition, f.t8_5, f.rate_700);
     p.hardness = h.hv;
+    p.hardness_duren = h.duren, p.hardness_yurioka = h.yurioka;
     p.hardness_bound = h.bound;
     return "";
 }
@@ -175,14 +176,14 @@ std::string why_missing(const ProbeResult& p) {
 std::string probes_csv(const RunAnalysis& a) {
     std::string out = "probe,x [mm],y [mm],z [mm],peak [degC],t8/5 [s],t8/3 [s],cooling rate at 540 degC [K/s],"
                       "cooling rate at 700 degC [K/s],time above Ac1 [s],time to 100 degC [s],HAZ hardness [HV],"
-                      "why missing\n";
+                      "Duren [HV],Yurioka [HV],why missing\n";
     for (const auto& p : a.probes) {
         const auto& f = p.figures;
         out += p.name + "," + csv_number(p.position[0] * 1e3, 2) + "," + csv_number(p.position[1] * 1e3, 2) + "," +
                csv_number(p.position[2] * 1e3, 2) + "," + csv_number(f.peak, 1) + "," + csv_number(f.t8_5, 3) + "," +
                csv_number(f.t8_3, 3) + "," + csv_number(f.rate_540, 1) + "," + csv_number(f.rate_700, 1) + "," +
                csv_number(f.time_above_ac1, 3) + "," + csv_number(f.time_to_100, 2) + "," + csv_number(p.hardness, 0) +
-               "," + why_missing(p) + "\n";
+               "," + csv_number(p.hardness_duren, 0) + "," + csv_number(p.hardness_yurioka, 0) + "," + why_missing(p) + "\n";
     }
     return out;
 }
@@ -302,12 +303,19 @@ post::Summary make_summary(const Case& c, const RunResult& result, const RunAnal
         if (hottest) none = "no estimate at any probe; at the hottest, " + hottest->name + ", " + hottest->no_hardness;
         may_miss("Hardness", "haz_hardness_max", "HAZ max", h ? h->hardness : nan, "HV", 0, none);
         probe_name("Hardness", "haz_hardness_probe", h ? h->name : "", none);
+        may_miss("Hardness", "haz_hardness_duren", "there Düren", h ? h->hardness_duren : nan, "HV", 0, none);
+        may_miss("Hardness", "haz_hardness_yurioka", "Yurioka", h ? h->hardness_yurioka : nan, "HV", 0, none);
         num("Hardness", "hardness_limit", "limit", limits.hardness_limit, "HV", 0);
+        s.add({"Hardness", "hardness_limit_source", "from", std::nullopt, "", 0, limits.hardness_limit_source});
         may_miss("Hardness", "critical_t8_5", "t8/5 needed",
                  critical_t8_5(*c.base.composition, limits.hardness_limit, c.temperatures.preheat), "s", 1,
                  "no t8/5 up to 1000 s keeps the estimate within the limit");
         if (h && h->hardness > limits.hardness_limit) {
             s.add_note("Hardness", "ABOVE THE LIMIT: consider preheat (heatbead preheat) or a higher heat input");
+        }
+        if (h) {
+            const auto gap = hardness_disagreement(h->hardness_duren, h->hardness_yurioka);
+            if (!gap.empty()) s.add_note("Hardness", "at " + h->name + ", " + gap);
         }
         for (const auto& w : hardness_validity(*c.base.composition)) s.add_note("Hardness", w);
     }

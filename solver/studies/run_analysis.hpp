@@ -27,11 +27,14 @@ struct ProbeResult {
     std::array<double, 3> position;  // m
     std::vector<double> time, temperature;
     post::CycleFigures figures;
-    // Highest HAZ hardness estimate (solver/weldability/haz_hardness.hpp) at line-start and HAZ probes that
+    // HAZ hardness estimates (solver/weldability/haz_hardness.hpp) at line-start and HAZ probes that
     // were fully austenitised (peak ≥ Ac3), when the case gives the base metal's composition;
-    // NaN elsewhere. `hardness_bound` names the phase bound that applied, if any; `no_hardness` says
+    // NaN elsewhere: `hardness` is the higher of Düren's (bounded by Maynier's phases) and
+    // Yurioka's. `hardness_bound` names the phase bound Düren's took, if any; `no_hardness` says
     // why a line-start or HAZ probe has none.
     double hardness = std::numeric_limits<double>::quiet_NaN();
+    double hardness_duren = std::numeric_limits<double>::quiet_NaN();
+    double hardness_yurioka = std::numeric_limits<double>::quiet_NaN();
     std::string hardness_bound, no_hardness;
 };
 
