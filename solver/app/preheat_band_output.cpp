@@ -27,7 +27,7 @@ nlohmann::json number(double v) { return std::isfinite(v) ? nlohmann::json(v) : 
 std::vector<std::string> band_lines(const PreheatBand& b) {
     std::vector<std::string> lines;
     for (const auto& k : b.checks) lines.push_back(k.verdict);
-    lines.push_back(b.words);
+    lines.push_back(b.words + format_text(", %.0f s", b.wall));
     return lines;
 }
 

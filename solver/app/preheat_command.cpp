@@ -311,9 +311,11 @@ int preheat_command(const LoadedCase& loaded, const PreheatOptions& options) {
     };
     const auto start = std::chrono::steady_clock::now();
     PreheatAnswer answer;
+    double wall = 0;  // s the search took (the band's runs are timed apart)
     std::optional<PreheatBand> band;
     try {
         answer = find_preheat(c, jobs, threads, interrupt_flag(), on_round);
+        wall = std::chrono::duration<double>(std::chrono::steady_clock::now() - start).count();
         if (c.bands.enabled && answer.found) {
             if (!options.quiet) {
                 std::printf("Bands       the band at %.0f degC, then the search against its worst side\n", *answer.found);
@@ -326,7 +328,6 @@ int preheat_command(const LoadedCase& loaded, const PreheatOptions& options) {
                              "written\n", printed, runs_file.string().c_str());
         return exit_code::run_failed;
     }
-    const double wall = std::chrono::duration<double>(std::chrono::steady_clock::now() - start).count();
     nlohmann::json json = to_json(answer, c);
     json["band"] = band ? band_json(*band) : nlohmann::json(nullptr);
     if (!band) json["no_band"] = c.bands.enabled ? "no preheat meets the limits at the nominal values" : "bands.enabled = false";
