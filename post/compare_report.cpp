@@ -142,10 +142,12 @@ std::string render_compare_report(const CompareReportInput& in) {
                                    .case_file = case_files,
                                    .created = in.created,
                                    .caution = in.caution.empty() ? compare_page_caution : in.caution,
+                                   .how_computed = in.how_computed,
                                    .warnings = in.warnings,
                                    .extra_style = page_style});
     page += differences_list(in.differences);
     page += side_by_side(in) + "\n";
+    page += bands_section(in.bands);
     page += "<div class=\"figures\">\n";
     page += figure("figure-compare-section", section_figure(in),
                    "The procedures' cross-sections on one drawing of the joint, to scale and cropped to the welds "

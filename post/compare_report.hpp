@@ -5,6 +5,9 @@
 // differences in words, the warnings and the caution. Lengths come in metres, drawn in millimetres.
 #pragma once
 
+#include "post/band_figures.hpp"
+#include "post/how_computed.hpp"
+
 #include "post/run_report.hpp"
 
 #include <filesystem>
@@ -31,6 +34,8 @@ struct CompareReportInput {
     std::vector<std::string> differences;         // plain sentences, e.g. "B fuses 1.4 mm deeper into the flange"
     std::vector<std::string> warnings;            // each already prefixed with the procedure's name
     std::string caution;                          // shown first, in a box (empty: compare_page_caution, post/cautions.hpp)
+    MethodRows how_computed;  // how the results were computed (post/how_computed.hpp), under the caution
+    BandsView bands;          // how sure the headline answers are (post/band_figures.hpp); none: no section
 };
 
 // The whole HTML page. Throws std::invalid_argument with fewer than two procedures, or a row whose

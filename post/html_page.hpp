@@ -3,6 +3,8 @@
 // them look alike, are self-contained (inline CSS, nothing fetched) and escape every text here.
 #pragma once
 
+#include "post/how_computed.hpp"
+
 #include <span>
 #include <string>
 #include <string_view>
@@ -14,12 +16,15 @@ namespace heatbead::post {
 struct PageHead {
     std::string_view title, case_file, created;
     std::string_view caution;                // shown in a box before anything else on the page
+    std::span<const std::pair<std::string, std::string>> how_computed;  // the block under the caution
     std::span<const std::string> warnings;   // none: no warnings section
     std::string_view extra_style = {};       // CSS for the page's own classes, after the shared style
 };
 
 // From the doctype to the warnings: the head with title and style, the header with the title and
-// the line naming the case file and the time, the caution box and the warnings list.
+// the line naming the case file and the time, the caution box, the block saying how the page's
+// results were computed (post/how_computed.hpp; method_not_recorded when there are no rows) and the
+// warnings list.
 std::string page_start(const PageHead& head);
 // Closes what page_start opened.
 std::string page_end();

@@ -31,6 +31,8 @@ const Stroke limit_stroke{"#b8322a", 1.6, ""};
 const Stroke found_stroke{"#2e7d4f", 2.0, "9 4"};
 const Stroke standard_stroke{"#7b3f98", 2.0, "2 3"};
 const Stroke reference_stroke{"#7a7a7a", 1.4, "5 3"};
+const Stroke across_stroke{"#c77c12", 2.0, "12 3 2 3"};
+const Stroke band_stroke{"#1f4e79", 1.4, ""};
 constexpr const char* miss_fill = "#ffffff";  // hollow marker: the run misses a limit
 
 // Preheats and limits with the one decimal they may carry, and none when it is zero: "75", "62.5".
@@ -61,6 +63,8 @@ struct Range {
 struct Series {
     std::string id, title, label, unit;
     double PreheatRun::*value;
+    double PreheatRun::*low;  // the band's ends, drawn as error bars where a run has them
+    double PreheatRun::*high;
     std::optional<double> limit;
     std::string limit_word;  // how the limit binds: "at most", "at least"
     std::string none_note;   // in the middle of the plot when no run has a value
@@ -80,9 +84,9 @@ std::string against_preheat(const PreheatReportInput& in, const std::vector<Preh
     Range x, y;
     for (const auto& r : runs) {
         x.add(r.preheat);
-        y.add(r.*s.value);
+        y.add(r.*s.value), y.add(r.*s.low), y.add(r.*s.high);
     }
-    x.add(in.found), x.add(in.standard), y.add(s.limit), y.add(s.reference);
+    x.add(in.found), x.add(in.standard), x.add(in.across), y.add(s.limit), y.add(s.reference);
     const Range xr = x.padded(), yr = y.padded();
     SvgPlot plot(s.id + "-plot", s.title, 660, 400, Axis{"preheat", "°C", xr.lo, xr.hi}, Axis{s.label, s.unit, yr.lo, yr.hi},
                  false, 200);
@@ -98,6 +102,7 @@ std::string against_preheat(const PreheatReportInput& in, const std::vector<Preh
         legend.push_back({s.reference_label + ": " + short_number(*s.reference) + ' ' + s.unit, reference_stroke, ""});
     }
     for (const auto& [at, stroke, name] : {std::tuple{in.found, found_stroke, "simulation"},
+                                           std::tuple{in.across, across_stroke, "across the band"},
                                            std::tuple{in.standard, standard_stroke, "standard"}})
         if (at) {
             segment(plot, {*at, y0}, {*at, y1}, stroke);
@@ -117,6 +122,13 @@ std::string against_preheat(const PreheatReportInput& in, const std::vector<Preh
         (r.passes ? any_pass : any_miss) = true;
     }
     plot.polyline(line, run_stroke);
+    bool any_band = false;
+    for (const auto& r : runs) {
+        if (!std::isfinite(r.*s.low) || !std::isfinite(r.*s.high)) continue;
+        plot.error_bar(r.preheat, r.*s.low, r.*s.value, r.*s.high, band_stroke);
+        any_band = true;
+    }
+    if (any_band) legend.push_back({"band where computed", band_stroke, ""});
     if (any_pass) legend.push_back({"passes every limit", run_stroke, run_stroke.colour});
     if (any_miss) legend.push_back({"misses a limit", run_stroke, miss_fill});
     plot.legend(legend);
@@ -124,12 +136,18 @@ std::string against_preheat(const PreheatReportInput& in, const std::vector<Preh
     return plot.svg();
 }
 
+// " (300–390)" where a band was computed, else "".
+std::string band(double lo, double hi, int decimals) {
+    return std::isfinite(lo) && std::isfinite(hi) ? " (" + format_fixed(lo, decimals) + "–" + format_fixed(hi, decimals) + ")" : "";
+}
+
 std::string runs_table(const std::vector<PreheatRun>& runs) {
     std::vector<TableRow> rows;
     rows.reserve(runs.size());
     for (const auto& r : runs)
-        rows.push_back({{short_number(r.preheat), format_fixed(r.hardness, 0), r.hardest_probe.empty() ? "n/a" : r.hardest_probe,
-                         format_fixed(r.hardness_duren, 0), format_fixed(r.hardness_yurioka, 0), format_fixed(r.t8_5, 1),
+        rows.push_back({{short_number(r.preheat), format_fixed(r.hardness, 0) + band(r.hardness_low, r.hardness_high, 0),
+                         r.hardest_probe.empty() ? "n/a" : r.hardest_probe, format_fixed(r.hardness_duren, 0),
+                         format_fixed(r.hardness_yurioka, 0), format_fixed(r.t8_5, 1) + band(r.t8_5_low, r.t8_5_high, 1),
                          std::isfinite(r.time_to_100) ? format_fixed(r.time_to_100, 0) : "not below 100 °C in the run",
                          r.verdict},
                         r.passes ? "passes" : ""});
@@ -151,6 +169,7 @@ std::string render_preheat_report(const PreheatReportInput& in) {
                                    .case_file = in.case_file,
                                    .created = in.created,
                                    .caution = in.caution.empty() ? preheat_page_caution : in.caution,
+                                   .how_computed = in.how_computed,
                                    .warnings = in.warnings,
                                    .extra_style = page_style});
     page += table("Answer", in.answer) + "\n";
@@ -158,13 +177,14 @@ std::string render_preheat_report(const PreheatReportInput& in) {
     page += table("Inputs", in.inputs) + "\n";
 
     const std::string answers =
-        " Vertical lines, where given: the lowest preheat of the search that meets every limit (simulation) and the "
-        "standard method's value (standard).";
+        " Vertical lines, where given: the lowest preheat of the search that meets every limit (simulation), the "
+        "lowest that meets them across the band of its answers (across the band) and the standard method's value "
+        "(standard); bars: the band of a run's figure where one was computed.";
     page += "<div class=\"figures\">\n";
     page += figure("figure-preheat-hardness",
                    against_preheat(in, runs,
                                    {"figure-preheat-hardness", "Highest HAZ hardness against preheat", "highest HAZ hardness",
-                                    "HV", &PreheatRun::hardness, in.hardness_limit, "at most",
+                                    "HV", &PreheatRun::hardness, &PreheatRun::hardness_low, &PreheatRun::hardness_high, in.hardness_limit, "at most",
                                     "no hardness estimate in any run", std::nullopt, ""}),
                    "Highest estimated HAZ hardness of each run against its preheat (filled: the run meets every "
                    "limit; hollow: it misses one), with the hardness limit. Runs without an estimate are left out." +
@@ -172,7 +192,7 @@ std::string render_preheat_report(const PreheatReportInput& in) {
     page += figure("figure-preheat-cooling",
                    against_preheat(in, runs,
                                    {"figure-preheat-cooling", "Shortest t8/5 against preheat", "shortest t8/5", "s",
-                                    &PreheatRun::t8_5, in.min_t8_5, "at least", "no t8/5 in any run",
+                                    &PreheatRun::t8_5, &PreheatRun::t8_5_low, &PreheatRun::t8_5_high, in.min_t8_5, "at least", "no t8/5 in any run",
                                     in.critical_t8_5, "needed for " + short_number(in.hardness_limit) + " HV"}),
                    "Shortest cooling time from 800 to 500 °C over the hardened HAZ probes of each run against its "
                    "preheat" + std::string(in.min_t8_5 ? ", with the shortest allowed" : "") +
@@ -182,12 +202,13 @@ std::string render_preheat_report(const PreheatReportInput& in) {
         page += figure("figure-preheat-hydrogen",
                        against_preheat(in, runs,
                                        {"figure-preheat-hydrogen", "Time to 100 °C against preheat", "shortest time to 100 °C",
-                                        "s", &PreheatRun::time_to_100, in.min_time_to_100, "at least", "", std::nullopt, ""}),
+                                        "s", &PreheatRun::time_to_100, &PreheatRun::time_to_100_low, &PreheatRun::time_to_100_high, in.min_time_to_100, "at least", "", std::nullopt, ""}),
                        "Shortest time to cool to 100 °C over those probes against preheat: the longer, the more "
                        "hydrogen leaves the weld before it is cold. Runs that did not cool below 100 °C are left out" +
                            std::string(in.min_time_to_100 ? "; the horizontal line is the shortest allowed." : ".") +
                            answers) + "\n";
     page += "</div>\n" + runs_table(runs) + "\n";
+    page += bands_section(in.bands);
     return page + page_end();
 }
 

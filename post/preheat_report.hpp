@@ -4,6 +4,10 @@
 // against preheat, with the limits drawn), the inputs, the warnings and the cautions.
 #pragma once
 
+#include "post/band_figures.hpp"
+#include "post/how_computed.hpp"
+
+#include <cmath>
 #include <filesystem>
 #include <optional>
 #include <string>
@@ -22,6 +26,10 @@ struct PreheatRun {
     double time_to_100 = 0;         // s: shortest over those probes (NaN: none cooled below 100 °C in the run)
     bool passes = false;
     std::string verdict;            // "meets every limit", or which limit it misses
+    // The band of each figure where one was made at this preheat (NaN elsewhere): drawn as error bars.
+    double hardness_low = std::nan(""), hardness_high = std::nan("");
+    double t8_5_low = std::nan(""), t8_5_high = std::nan("");
+    double time_to_100_low = std::nan(""), time_to_100_high = std::nan("");
 };
 
 struct PreheatReportInput {
@@ -34,9 +42,12 @@ struct PreheatReportInput {
     std::optional<double> min_t8_5, min_time_to_100;          // s, when asked
     std::optional<double> critical_t8_5;                      // s: the t8/5 the hardness limit needs
     std::optional<double> found;     // °C: the lowest passing preheat of the search
+    std::optional<double> across;    // °C: the lowest meeting the limits across the band (verified)
     std::optional<double> standard;  // °C: the standard method's value (clipped at the search's lowest)
     std::vector<std::string> warnings;
     std::string caution;  // shown first, in a box (empty: preheat_page_caution, post/cautions.hpp)
+    MethodRows how_computed;  // how the results were computed (post/how_computed.hpp), under the caution
+    BandsView bands;          // how sure the headline answers are (post/band_figures.hpp); none: no section
 };
 
 // The whole HTML page. Throws std::invalid_argument when there are no runs to show.

@@ -120,8 +120,10 @@ std::string render_report(const ReportInput& in) {
                                    .case_file = in.case_file,
                                    .created = in.created,
                                    .caution = in.caution.empty() ? run_page_caution : in.caution,
+                                   .how_computed = in.how_computed,
                                    .warnings = in.warnings});
     page += "<div class=\"tables\">" + table("Procedure", in.procedure) + table("Results", in.results) + "</div>\n";
+    page += bands_section(in.bands);
     page += "<div class=\"figures\">\n";
     page += figure("figure-section", section_figure(in, view),
                    "Cross-section to scale, cropped to the weld and its heat-affected zone (the plates go on "

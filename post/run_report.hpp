@@ -4,6 +4,9 @@
 // tables, the warnings and the caution. Lengths come in metres and are drawn in millimetres.
 #pragma once
 
+#include "post/band_figures.hpp"
+#include "post/how_computed.hpp"
+
 #include <array>
 #include <filesystem>
 #include <string>
@@ -48,6 +51,8 @@ struct ReportInput {
     SectionImage peak_map;              // peak temperature on the cross-section
     std::vector<std::string> warnings;
     std::string caution;  // empty: run_page_caution (post/cautions.hpp)
+    MethodRows how_computed;  // how the results were computed (post/how_computed.hpp), under the caution
+    BandsView bands;          // how sure the headline answers are (post/band_figures.hpp); none: no section
 };
 
 // The whole HTML page. Throws std::invalid_argument naming the part whose sizes do not agree (a

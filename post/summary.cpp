@@ -11,6 +11,10 @@ namespace heatbead::post {
 
 bool SummaryItem::missing() const { return text.empty() && !(value && std::isfinite(*value)); }
 
+bool SummaryItem::has_band() const {
+    return banded && !missing() && low && high && std::isfinite(*low) && std::isfinite(*high);
+}
+
 std::string missing_text(const std::vector<MissingOutput>& missing) {
     std::string out;
     for (std::size_t n = 0; n < missing.size(); ++n) {
@@ -23,11 +27,16 @@ std::string missing_text(const std::vector<MissingOutput>& missing) {
     return out;
 }
 
+std::string band_text(const SummaryItem& i) {
+    if (!i.has_band()) return "";
+    return " (" + format_text("%.*f", i.decimals, *i.low) + "–" + format_text("%.*f", i.decimals, *i.high) + ")";
+}
+
 std::string display(const SummaryItem& i) {
     if (!i.text.empty()) return i.text;
     if (i.missing()) return i.reason.empty() ? "none" : "none (" + i.reason + ")";
     const std::string value = format_text("%.*f", i.decimals, *i.value);
-    return i.unit.empty() ? value : value + " " + i.unit;
+    return (i.unit.empty() ? value : value + " " + i.unit) + band_text(i);
 }
 
 namespace {
@@ -83,6 +92,11 @@ std::string Summary::to_json() const {
         v["unit"] = i.unit;
         v["label"] = i.label;
         if (i.missing()) v["reason"] = i.reason;
+        if (i.banded) {
+            v["low"] = i.has_band() ? nlohmann::json(*i.low) : nlohmann::json(nullptr);
+            v["high"] = i.has_band() ? nlohmann::json(*i.high) : nlohmann::json(nullptr);
+            if (!i.has_band()) v["no_band"] = i.missing() ? i.reason : i.no_band;
+        }
         j[i.key] = v;
     }
     nlohmann::json notes = nlohmann::json::array();
@@ -92,13 +106,24 @@ std::string Summary::to_json() const {
 }
 
 std::string Summary::to_csv() const {
-    std::string out = "key,value,unit,label,reason\n";
+    std::string out = "key,value,low,high,unit,label,reason\n";
     for (const auto& i : items_) {
         std::string v = !i.text.empty() ? i.text : (!i.missing() ? nlohmann::json(*i.value).dump() : "");
-        out += csv_field(i.key) + "," + csv_field(v) + "," + csv_field(i.unit) + "," + csv_field(i.label) + "," +
-               csv_field(i.missing() ? i.reason : "") + "\n";
+        const std::string low = i.has_band() ? nlohmann::json(*i.low).dump() : "";
+        const std::string high = i.has_band() ? nlohmann::json(*i.high).dump() : "";
+        const std::string why = i.missing() ? i.reason : i.banded && !i.has_band() ? "no band: " + i.no_band : "";
+        out += csv_field(i.key) + "," + csv_field(v) + "," + low + "," + high + "," + csv_field(i.unit) + "," +
+               csv_field(i.label) + "," + csv_field(why) + "\n";
     }
     return out;
 }
+
+SummaryItem* Summary::find(const std::string& key) {
+    for (auto& i : items_)
+        if (i.key == key) return &i;
+    return nullptr;
+}
+
+const SummaryItem* Summary::find(const std::string& key) const { return const_cast<Summary*>(this)->find(key); }
 
 }  // namespace heatbead::post

@@ -19,11 +19,20 @@ struct SummaryItem {
     int decimals = 2;
     std::string text;    // for yes/no and words; used instead of value when not empty
     std::string reason = "";  // why there is no value, e.g. "no HAZ probe reached 800 degC": shown in its place
+    // A headline answer carries a band (solver/studies/answer_bands.hpp): its low and high ends, or,
+    // where it has none, why not. Items that are not banded have neither.
+    bool banded = false;
+    std::optional<double> low = std::nullopt, high = std::nullopt;
+    std::string no_band = "";
     bool missing() const;  // neither a text nor a finite value
+    bool has_band() const;  // banded, with both ends finite
 };
 
-// The item as shown on screen and in the report: its text, its value with unit, or "none (reason)".
+// The item as shown on screen and in the report: its text, its value with unit and its band
+// ("1.30 mm (1.10–1.60)"), or "none (reason)".
 std::string display(const SummaryItem& item);
+// " (1.10–1.60)" with the item's decimals, or "" when it has no band.
+std::string band_text(const SummaryItem& item);
 
 // An item without a value: its key and why.
 struct MissingOutput {
@@ -46,8 +55,15 @@ public:
     // One line per group: "Group      label value unit, label value unit, ..." then the notes. An item
     // without a value shows "none (reason)"; the same reason again on the line shows "none".
     std::string to_text() const;
-    std::string to_json() const;  // {key: {value, unit, label[, reason]}, notes: [...]}; value null when missing
-    std::string to_csv() const;   // key,value,unit,label,reason
+    // {key: {value, unit, label[, reason][, low, high[, no_band]]}, notes: [...]}; value null when missing,
+    // low and high on banded items only (null, with no_band, where the band could not be made).
+    std::string to_json() const;
+    // key,value,low,high,unit,label,reason: low and high empty without a band; the reason says why a value
+    // is missing, or for a banded item without a band, "no band: " and why.
+    std::string to_csv() const;
+    // The item `key`, or null.
+    SummaryItem* find(const std::string& key);
+    const SummaryItem* find(const std::string& key) const;
 
 private:
     std::vector<SummaryItem> items_;

@@ -63,6 +63,26 @@ Ticks ticks(double lo, double hi, double length_px, double spacing_px = 70) {
     return t;
 }
 
+// The ticks of an axis: numbered ones, or one per name at 1, 2, ... on an axis of names.
+struct AxisTicks {
+    std::vector<double> values;
+    std::vector<std::string> labels;
+};
+AxisTicks axis_ticks(const Axis& a, double length_px, double spacing_px) {
+    AxisTicks out;
+    if (!a.names.empty()) {
+        for (std::size_t i = 0; i < a.names.size(); ++i) out.values.push_back(1.0 + static_cast<double>(i));
+        out.labels = a.names;
+        return out;
+    }
+    const Ticks t = ticks(a.lo, a.hi, length_px, spacing_px);
+    out.values = t.values;
+    for (const double v : t.values) out.labels.push_back(format_fixed(v, t.decimals));
+    return out;
+}
+
+std::string axis_title(const Axis& a) { return a.names.empty() || !a.unit.empty() ? a.label + " (" + a.unit + ")" : a.label; }
+
 std::string points_attribute(const std::vector<std::array<double, 2>>& pixels) {
     std::string s;
     for (const auto& p : pixels) {
@@ -157,6 +177,18 @@ void SvgPlot::band_y(double lo, double hi, const std::string& fill) {
     const double y0 = py(std::max(lo, hi)), y1 = py(std::min(lo, hi));
     data_ += "<rect x=\"" + n(left_) + "\" y=\"" + n(y0) + "\" width=\"" + n(plot_w_) + "\" height=\"" + n(y1 - y0) +
              "\" fill=\"" + escape_html(fill) + "\"/>";
+}
+
+void SvgPlot::error_bar(double x, double lo, double value, double hi, const Stroke& stroke) {
+    if (!std::isfinite(x)) return;
+    const double cx = px(x), cap = 5;
+    if (std::isfinite(lo) && std::isfinite(hi)) {
+        const double y0 = py(lo), y1 = py(hi);
+        data_ += "<path fill=\"none\"" + stroke_attributes(stroke) + " d=\"M" + n(cx) + ' ' + n(y0) + "V" + n(y1) + "M" +
+                 n(cx - cap) + ' ' + n(y0) + "H" + n(cx + cap) + "M" + n(cx - cap) + ' ' + n(y1) + "H" + n(cx + cap) + "\"/>";
+    }
+    if (std::isfinite(value))
+        data_ += "<circle cx=\"" + n(cx) + "\" cy=\"" + n(py(value)) + "\" r=\"4\" fill=\"" + escape_html(stroke.colour) + "\"/>";
 }
 
 void SvgPlot::dimension(Point a, Point b, const std::string& text, const Stroke& stroke) {
@@ -287,7 +319,7 @@ std::string SvgPlot::svg() const {
                     escape_html(title_) + "</title><defs><clipPath id=\"" + clip + "\"><rect x=\"" + n(left_) + "\" y=\"" +
                     n(top_) + "\" width=\"" + n(plot_w_) + "\" height=\"" + n(plot_h_) + "\"/></clipPath></defs>";
     // Grid first, data over it, then the frame, ticks and titles, then the overlay on top.
-    const Ticks tx = ticks(x_.lo, x_.hi, plot_w_), ty = ticks(y_.lo, y_.hi, plot_h_, 50);
+    const AxisTicks tx = axis_ticks(x_, plot_w_, 70), ty = axis_ticks(y_, plot_h_, 50);
     const double bottom = top_ + plot_h_, right = left_ + plot_w_;
     s += "<g stroke=\"#e3e3e3\" stroke-width=\"1\">";
     for (const double v : tx.values)
@@ -297,23 +329,25 @@ std::string SvgPlot::svg() const {
     s += "</g><g clip-path=\"url(#" + clip + ")\">" + data_ + "</g>";
     s += "<rect x=\"" + n(left_) + "\" y=\"" + n(top_) + "\" width=\"" + n(plot_w_) + "\" height=\"" + n(plot_h_) +
          "\" fill=\"none\" stroke=\"#444444\"/><g fill=\"#222222\">";
-    for (const double v : tx.values) {
+    for (std::size_t i = 0; i < tx.values.size(); ++i) {
+        const double v = tx.values[i];
         s += "<line x1=\"" + n(px(v)) + "\" y1=\"" + n(bottom) + "\" x2=\"" + n(px(v)) + "\" y2=\"" + n(bottom + 5) +
              "\" stroke=\"#444444\"/>";
-        s += "<text x=\"" + n(px(v)) + "\" y=\"" + n(bottom + 18) + "\" text-anchor=\"middle\">" +
-             format_fixed(v, tx.decimals) + "</text>";
+        s += "<text x=\"" + n(px(v)) + "\" y=\"" + n(bottom + 18) + "\" text-anchor=\"middle\">" + escape_html(tx.labels[i]) +
+             "</text>";
     }
-    for (const double v : ty.values) {
+    for (std::size_t i = 0; i < ty.values.size(); ++i) {
+        const double v = ty.values[i];
         s += "<line x1=\"" + n(left_ - 5) + "\" y1=\"" + n(py(v)) + "\" x2=\"" + n(left_) + "\" y2=\"" + n(py(v)) +
              "\" stroke=\"#444444\"/>";
-        s += "<text x=\"" + n(left_ - 8) + "\" y=\"" + n(py(v) + 4) + "\" text-anchor=\"end\">" +
-             format_fixed(v, ty.decimals) + "</text>";
+        s += "<text x=\"" + n(left_ - 8) + "\" y=\"" + n(py(v) + 4) + "\" text-anchor=\"end\">" + escape_html(ty.labels[i]) +
+             "</text>";
     }
     const double title_x = 16, title_y = top_ + plot_h_ / 2;
     s += "<text x=\"" + n(left_ + plot_w_ / 2) + "\" y=\"" + n(bottom + 38) + "\" text-anchor=\"middle\">" +
-         escape_html(x_.label + " (" + x_.unit + ")") + "</text>";
+         escape_html(axis_title(x_)) + "</text>";
     s += "<text x=\"" + n(title_x) + "\" y=\"" + n(title_y) + "\" text-anchor=\"middle\" transform=\"rotate(-90 " +
-         n(title_x) + ' ' + n(title_y) + ")\">" + escape_html(y_.label + " (" + y_.unit + ")") + "</text></g>";
+         n(title_x) + ' ' + n(title_y) + ")\">" + escape_html(axis_title(y_)) + "</text></g>";
     return s + overlay_ + "</svg>";
 }
 

@@ -26,8 +26,11 @@ std::string escape_html(std::string_view text);
 std::string heat_colour(double t);
 
 struct Axis {
-    std::string label, unit;  // drawn as "label (unit)"
+    std::string label, unit;  // drawn as "label (unit)", or "label" alone on an axis of names
     double lo, hi;            // data range; an empty or non-finite range is widened to one unit
+    // An axis of names (procedures, runs): name i sits at 1 + i, with a tick of its own, in place of
+    // the numbered ticks; lo and hi should then span 0.5 to names + 0.5.
+    std::vector<std::string> names = {};
 };
 
 struct Stroke {
@@ -59,6 +62,9 @@ public:
     void polygon(std::span<const Point> points, const Stroke& stroke, const std::string& fill);
     // A horizontal band across the plot area between y = lo and y = hi.
     void band_y(double lo, double hi, const std::string& fill);
+    // An error bar at x: a vertical line from lo to hi with short caps, and a round marker at `value`.
+    // Ends that are not finite leave the bar out; a value that is not finite leaves the marker out.
+    void error_bar(double x, double lo, double value, double hi, const Stroke& stroke);
     // A dimension line between a and b with arrowheads; `text` sits beside its middle, unclipped.
     void dimension(Point a, Point b, const std::string& text, const Stroke& stroke);
     // Text at a data point, shifted by (dx, dy) px, on a white halo so it reads over lines.

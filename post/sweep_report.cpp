@@ -42,6 +42,9 @@ constexpr const char* group_dashes[] = {"", "7 3", "2 3", "10 3 2 3", "4 4", "12
 static_assert(std::size(group_colours) == std::size(group_dashes));
 constexpr std::size_t max_named_groups = std::size(group_colours);
 
+// The bands of the points, where they ran with bands on: thin and dark, over every line's colour.
+const Stroke band_stroke{"#333333", 1.0, ""};
+
 Stroke group_stroke(std::size_t i) {
     return {group_colours[i % max_named_groups], 1.6, group_dashes[i % max_named_groups]};
 }
@@ -81,6 +84,16 @@ void validate(const SweepReportInput& in) {
             throw std::invalid_argument("sweep report: failed point " + std::to_string(f + 1) + " has " +
                                         std::to_string(in.failures[f].axis_values.size()) + " axis values for " +
                                         std::to_string(in.axes.size()) + " axes");
+    for (const auto* ends : {&in.lows, &in.highs}) {
+        if (ends->empty()) continue;
+        if (ends->size() != in.rows.size())
+            throw std::invalid_argument("sweep report: bands for " + std::to_string(ends->size()) + " rows of " +
+                                        std::to_string(in.rows.size()));
+        for (const auto& e : *ends)
+            if (e.size() != in.outputs.size())
+                throw std::invalid_argument("sweep report: a row's band has " + std::to_string(e.size()) + " ends for " +
+                                            std::to_string(in.outputs.size()) + " outputs");
+    }
     const std::size_t finished = in.rows.size() + in.failures.size();
     if (in.points_total < finished)
         throw std::invalid_argument("sweep report: " + std::to_string(in.points_total) + " points in all, but " +
@@ -149,12 +162,19 @@ std::string response_figure(const SweepReportInput& in, const std::vector<const 
     const std::size_t column = in.axes.size() + output;
     // The lines: points keyed by the values of every other axis (all of them, not only the plotted ones).
     std::map<std::vector<double>, std::vector<Point>> groups;
+    // The band of a placed row's output, {NaN, NaN} where it has none.
+    const auto band = [&](const std::vector<double>* row) {
+        const auto r = static_cast<std::size_t>(row - in.rows.data());
+        return in.lows.empty() ? std::array<double, 2>{std::nan(""), std::nan("")}
+                               : std::array<double, 2>{in.lows[r][output], in.highs[r][output]};
+    };
     Extent xs, ys;
     for (const auto* row : placed) {
         const std::vector<double>& r = *row;
         xs.add(r[axis]);  // from every placed point, so one axis spans alike for every output
         if (!std::isfinite(r[column])) continue;
         ys.add(r[column]);
+        for (const double end : band(row)) ys.add(end);
         std::vector<double> key;
         for (std::size_t b = 0; b < in.axes.size(); ++b)
             if (b != axis) key.push_back(r[b]);
@@ -175,10 +195,18 @@ std::string response_figure(const SweepReportInput& in, const std::vector<const 
         plot.polyline(points, stroke);
         for (const Point& p : points) plot.polygon(square(plot, width, height, panel, p, 3.5), {stroke.colour, 1.0, ""}, stroke.colour);
     }
+    bool banded = false;
+    for (const auto* row : placed) {
+        const auto [lo, hi] = band(row);
+        if (!std::isfinite(lo) || !std::isfinite(hi) || !std::isfinite((*row)[column])) continue;
+        plot.error_bar((*row)[axis], lo, (*row)[column], hi, band_stroke);
+        banded = true;
+    }
     plot.legend(legend);
     if (groups.empty()) note_in_middle(plot, "no value at any point");
 
-    std::string caption = with_unit(out) + " against " + with_unit(ax) + " at each point that succeeded";
+    std::string caption = with_unit(out) + " against " + with_unit(ax) + " at each point that succeeded" +
+                          (banded ? " (bars: each point's band)" : "");
     if (in.axes.size() == 1) caption += ", joined in order of " + ax.name + ".";
     else if (named) caption += "; points that share the other axes' values are joined, one line for each combination (legend).";
     else if (groups.size() > max_named_groups)
@@ -245,6 +273,7 @@ std::string render_sweep_report(const SweepReportInput& in) {
                                    .case_file = in.sweep_file,
                                    .created = in.created,
                                    .caution = in.caution.empty() ? sweep_page_caution : in.caution,
+                                   .how_computed = in.how_computed,
                                    .warnings = {},
                                    .extra_style = page_style});
     const std::size_t done = in.rows.size(), failed = in.failures.size(), waiting = in.points_total - done - failed;

@@ -5,6 +5,8 @@
 // failed points with their errors, the points with missing outputs and why, and the caution.
 #pragma once
 
+#include "post/how_computed.hpp"
+
 #include <filesystem>
 #include <string>
 #include <vector>
@@ -21,6 +23,9 @@ struct SweepReportInput {
     std::vector<SweepColumn> outputs;  // the main outputs to plot
     // One row per point that succeeded: axis values then output values, in column order (NaN: none).
     std::vector<std::vector<double>> rows;
+    // The band of each output of each row (points run with bands on): its low and high ends, one per
+    // output (NaN: none); empty, or one vector per row, drawn as error bars.
+    std::vector<std::vector<double>> lows, highs;
     // Points that failed: their axis values as text, and the error.
     struct Failure {
         std::vector<std::string> axis_values;
@@ -36,6 +41,7 @@ struct SweepReportInput {
     std::vector<Incomplete> incomplete;
     std::size_t points_total = 0;  // including those not yet run
     std::string caution;  // empty: sweep_page_caution (post/cautions.hpp)
+    MethodRows how_computed;  // how the results were computed (post/how_computed.hpp), under the caution
 };
 
 // The whole HTML page. Throws std::invalid_argument for a row whose size is not axes + outputs, a

@@ -132,7 +132,12 @@ def trends(table):
             fail(f"t8/5 does not fall with thickness in 2-D flow at {c} A: {t}")
         if abs(t[3] / t[2] - 1) > 0.1:
             fail(f"t8/5 changes by more than 10 % from 20 to 30 mm at {c} A (3-D flow): {t}")
-    print("trends hold: penetration and t8/5 grow with current; t8/5 falls with thickness, then levels off")
+    # A sweep's points run without the bands' extra runs unless the sweep turns them on.
+    banded = [k for k in rows[0] if key_of(k).endswith(("_low", "_high"))]
+    if banded:
+        fail("the points carry bands, which a sweep turns off by default: " + ", ".join(banded))
+    print("trends hold: penetration and t8/5 grow with current; t8/5 falls with thickness, then levels off;"
+          " no bands by default")
 
 
 def key_of(header):

@@ -6,6 +6,7 @@
 #include "solver/case/case_reader.hpp"
 #include "solver/core/exit_codes.hpp"
 #include "solver/numerics/integrators.hpp"
+#include "solver/studies/answer_bands.hpp"
 #include "solver/studies/run_setup.hpp"
 #include "solver/app/sweep_command.hpp"
 
@@ -122,6 +123,43 @@ double peak_memory_bytes() {
     return static_cast<double>(usage.ru_maxrss) * 1024.0;  // Linux reports kilobytes
 }
 
+// The cost of a band on this machine, measured in this process: one run of the case as `heatbead
+// run` makes it (run, analysis, summary) on every thread and again on one thread (as each of the
+// band's runs has it), then the band's extra runs side by side, one per core, as `heatbead run`
+// makes them. Both ratios are printed: on a loaded machine threads of one run wait on each other
+// more than runs side by side do.
+double timed_run(const Case& c, const mesh::Grid& grid, const Material& material, int threads, post::Summary& summary) {
+    omp_set_num_threads(threads);
+    const std::atomic<bool> never{false};
+    const auto start = Clock::now();
+    PreparedRun run = prepare_run(c, grid, material);
+    const RunResult result = run.sim->run(never);
+    summary = make_summary(c, result, analyse_run(c, run), 0);
+    return seconds_since(start);
+}
+
+void bench_band(const std::string& path, double finest) {
+    const Case c = load_case(path, {{"grid.finest", std::to_string(finest * 1e3) + " mm"}}).value;
+    const mesh::Grid grid = mesh::build_grid(c.joint, c.grid);
+    const Material material = make_material(c.base);
+    const int cores = omp_get_max_threads();
+    post::Summary summary;
+    const double one = timed_run(c, grid, material, cores, summary);
+    const double single = timed_run(c, grid, material, 1, summary);
+    const int jobs = std::min(cores, static_cast<int>(band_variants(c).size()));
+    const std::atomic<bool> never{false};
+    const AnswerBands bands = run_bands(c, grid, material, summary, jobs, std::max(1, cores / jobs), never);
+    omp_set_num_threads(cores);
+    std::printf("  one run at %.2f mm with its analysis: %.2f s on %d threads, %.2f s on 1\n", finest * 1e3, one, cores,
+                single);
+    std::printf("  its band: %zu extra runs, %d at a time: %.2f s = %.1fx the run on %d threads, %.1fx the run on 1\n",
+                bands.runs, jobs, bands.wall, bands.wall / one, cores, bands.wall / single);
+    const auto& t = bands.bands.at("t8_5_min");
+    const auto& p = bands.bands.at("penetration_flange");
+    std::printf("  t8/5 %.2f s (%.2f-%.2f), flange penetration %.2f mm (%.2f-%.2f)\n", t.value, t.low, t.high,
+                p.value, p.low, p.high);
+}
+
 void print_run(const char* label, const ReferenceRun& r) {
     std::printf("  %-26s %5.2f mm  %8zu cells  %4zu steps  %5zu stages  %7.2f s wall", label, r.finest * 1e3, r.cells,
                 r.steps, r.stages, r.wall);
@@ -180,6 +218,8 @@ int bench_command(const BenchOptions& o) {
                 fine * 1e3, base_full / e.wall, e.wall, base_full);
     std::printf("  speed ratio to the converged answer: %.1fx\n", base_full / answer.wall);
     std::printf("Energy balance errors: %.2e, %.2e, %.2e\n", a.energy_error, b.energy_error, e.energy_error);
+    std::printf("Band of the answers, at the answer's spacing\n");
+    bench_band(o.case_path, coarse);
     return exit_code::ok;
 }
 

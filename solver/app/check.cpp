@@ -1,3 +1,4 @@
+#include "solver/studies/answer_bands.hpp"
 #include "solver/app/check.hpp"
 
 #include "mesh/grid.hpp"
@@ -135,6 +136,11 @@ std::string to_text(const CheckReport& r) {
                     c.solver.time_limit, hold->time);
     }
     if (r.stop.never) out += line("            ** CAN NEVER BE MET ** %s", r.stop.never->c_str());
+    out += c.bands.enabled
+               ? line("Bands       %zu extra full runs after the run (arc efficiency +-%.2f, source +-%.0f %%, a grid of "
+                      "twice the spacing); bands.enabled = false or --no-bands turns them off",
+                      band_variants(c).size(), c.bands.arc_efficiency_spread, c.bands.source_spread * 100)
+               : line("Bands       none (bands.enabled = false)");
     if (const auto& ce = r.carbon_equivalents) {
         out += line("Steel       CE(IIW) %.3f, Pcm %.3f, CEN %.3f, CET %.3f", ce->iiw, ce->pcm, ce->cen, ce->cet);
     }
@@ -163,6 +169,10 @@ nlohmann::json to_json(const CheckReport& r) {
     out["heat_input"] = q(r.heat_input * 1e-6, "kJ/mm");
     out["arc_energy"] = q(r.arc_energy * 1e-6, "kJ/mm");
     out["net_power"] = q(r.net_power, "W");
+    out["bands"] = {{"enabled", c.bands.enabled},
+                    {"extra_runs", c.bands.enabled ? band_variants(c).size() : 0},
+                    {"arc_efficiency_spread", {{"value", c.bands.arc_efficiency_spread}, {"source", c.bands.arc_efficiency_spread_source}}},
+                    {"source_spread", {{"value", c.bands.source_spread}, {"source", c.bands.source_spread_source}}}};
     out["arc_efficiency"] = {{"value", r.net_power / electrical_power(p)}, {"source", p.arc_efficiency_source}};
     out["electrical_power"] = {{"value", electrical_power(p)}, {"unit", "W"}, {"basis", p.power_basis}};
     const auto& b = r.bead;

@@ -27,7 +27,15 @@ struct CommonOptions {
     std::string format = "text";
     std::string out_dir;
     bool quiet = false;
+    bool no_bands = false;
 };
+
+// --no-bands is --set bands.enabled=false: the case key and the flag are one switch.
+constexpr const char* bands_off = "bands.enabled=false";
+
+void add_no_bands(CLI::App& cmd, bool& no_bands) {
+    cmd.add_flag("--no-bands", no_bands, "skip the extra runs that band the headline answers (" + std::string(bands_off) + ")");
+}
 
 void add_case_options(CLI::App& cmd, CommonOptions& o) {
     cmd.add_option("case", o.case_path, "case file (TOML)")->required();
@@ -41,6 +49,7 @@ void add_case_options(CLI::App& cmd, CommonOptions& o) {
 LoadedCase load(const CommonOptions& o) {
     std::vector<Override> overrides;
     for (const auto& s : o.sets) overrides.push_back(parse_override(s));
+    if (o.no_bands) overrides.push_back(parse_override(bands_off));
     return load_case(o.case_path, overrides);
 }
 
@@ -108,7 +117,7 @@ struct CompareArgs {
     CLI::App* command = nullptr;
     std::vector<std::string> cases, sets;
     CompareOptions extra;
-    bool no_preheat = false;
+    bool no_preheat = false, no_bands = false;
 };
 struct SweepArgs {
     CLI::App* command = nullptr;
@@ -150,6 +159,7 @@ void declare_check(CLI::App& app, CheckArgs& a) {
 void declare_run(CLI::App& app, RunArgs& a) {
     a.command = app.add_subcommand("run", "simulate the pass and the cooling after it; write results");
     add_case_options(*a.command, a.options);
+    add_no_bands(*a.command, a.options.no_bands);
     a.command->add_option("--threads", a.extra.threads, "OpenMP threads (default: all cores)")->check(CLI::Range(1, 1024));
 }
 
@@ -157,6 +167,7 @@ void declare_preheat(CLI::App& app, PreheatArgs& a) {
     a.command = app.add_subcommand("preheat", "find the lowest preheat that keeps the HAZ within the limits of "
                                               "[preheat_search], beside the EN 1011-2 method B value");
     add_case_options(*a.command, a.options);
+    add_no_bands(*a.command, a.options.no_bands);
     add_parallel_options(*a.command, a.extra.jobs, a.extra.threads);
 }
 
@@ -167,6 +178,7 @@ void declare_compare(CLI::App& app, CompareArgs& a) {
     c->add_option("--out", a.extra.out_dir, "folder for the files written")->capture_default_str();
     c->add_flag("--quiet", a.extra.quiet, "print nothing but errors");
     c->add_flag("--no-preheat", a.no_preheat, "skip the preheat search of cases with a composition and hydrogen");
+    add_no_bands(*c, a.no_bands);
     add_parallel_options(*c, a.extra.jobs, a.extra.threads);
 }
 
@@ -227,6 +239,7 @@ int dispatch(Subcommands& s) {
     if (s.preheat.command->parsed()) return preheat_command(load(s.preheat.options), s.preheat.command_options());
     if (s.compare.command->parsed()) {
         s.compare.extra.preheat = !s.compare.no_preheat;
+        if (s.compare.no_bands) s.compare.sets.push_back(bands_off);
         return compare_command(load_all(s.compare.cases, s.compare.sets), s.compare.extra);
     }
     if (s.fit.command->parsed()) return fit_command(load(s.fit.options), s.fit.command_options());

@@ -13,6 +13,9 @@
 #include "solver/studies/run_analysis.hpp"
 #include "solver/app/run_command.hpp"
 #include "solver/app/run_files.hpp"
+#include "solver/studies/answer_bands.hpp"
+#include "solver/studies/how_computed.hpp"
+#include "solver/studies/preheat_band.hpp"
 #include "solver/studies/run_setup.hpp"
 
 #include <nlohmann/json.hpp>
@@ -59,6 +62,8 @@ struct Outcome {
     post::Summary summary;
     double wall = 0;
     std::optional<PreheatAnswer> preheat;
+    std::optional<AnswerBands> bands;         // none: turned off for this case
+    std::optional<PreheatBand> preheat_band;  // none: off, or no preheat found
 };
 
 // Figures the table and the words use, NaN where not available.
@@ -97,14 +102,22 @@ Figures figures_of(const Outcome& o) {
 std::string summary_cell(const Outcome& o, const char* key, const char* format) {
     const post::SummaryItem* i = item(o.summary, key);
     if (!i) return "not computed";
-    return i->missing() ? "none (" + i->reason + ")" : format_text(format, *i->value);
+    return i->missing() ? "none (" + i->reason + ")" : format_text(format, *i->value) + post::band_text(*i);
+}
+
+// The band of a summary figure, " (1.10–1.60)", or "".
+std::string band_of(const Outcome& o, const char* key) {
+    const post::SummaryItem* i = item(o.summary, key);
+    return i ? post::band_text(*i) : "";
 }
 
 // Two summary figures as a range "lo-hi", or why the run has none.
 std::string summary_range(const Outcome& o, const char* lo, const char* hi, const char* lo_format, const char* hi_format) {
     const post::SummaryItem *a = item(o.summary, lo), *b = item(o.summary, hi);
     if (!a || !b || a->missing() || b->missing()) return summary_cell(o, a && !a->missing() ? hi : lo, "%g");
-    return format_text(lo_format, *a->value) + "-" + format_text(hi_format, *b->value);
+    const bool banded = a->has_band() || b->has_band();
+    return format_text(lo_format, *a->value) + post::band_text(*a) + (banded ? " to " : "-") +
+           format_text(hi_format, *b->value) + post::band_text(*b);
 }
 
 // "complete", or what the run's summary lacks and why.
@@ -141,11 +154,13 @@ Rows table(const std::vector<Outcome>& outcomes) {
         return legs(mesh::fillet_of(o.c->joint)) + (o.c->bead.from_wire ? " (from the wire)" : " (as asked)");
     });
     row("fused legs (flange x web)", [](const Outcome&, const Figures& f) { return or_na("%.1f", f.leg_flange) + " x " + or_na("%.1f mm", f.leg_web); });
-    row("penetration into flange", [](const Outcome&, const Figures& f) { return or_na("%.2f mm", f.pen_flange); });
-    row("penetration into web", [](const Outcome&, const Figures& f) { return or_na("%.2f mm", f.pen_web); });
+    row("penetration into flange", [](const Outcome& o, const Figures& f) { return or_na("%.2f mm", f.pen_flange) + band_of(o, "penetration_flange"); });
+    row("penetration into web", [](const Outcome& o, const Figures& f) { return or_na("%.2f mm", f.pen_web) + band_of(o, "penetration_web"); });
     row("fusion past the root", [](const Outcome&, const Figures& f) { return or_na("%.2f mm", f.past_root); });
     row("root fused", [](const Outcome&, const Figures& f) { return std::string(f.root_fused ? "yes" : "NO"); });
-    row("fused area, dilution", [](const Outcome&, const Figures& f) { return or_na("%.1f mm2", f.fused) + ", " + or_na("%.0f %%", f.dilution); });
+    row("fused area, dilution", [](const Outcome& o, const Figures& f) {
+        return or_na("%.1f mm2", f.fused) + band_of(o, "fused_area") + ", " + or_na("%.0f %%", f.dilution);
+    });
     row("HAZ width (flange, web)", [](const Outcome&, const Figures& f) { return or_na("%.2f", f.haz_flange) + ", " + or_na("%.2f mm", f.haz_web); });
     row("t8/5 at the HAZ probes", [](const Outcome& o, const Figures&) { return summary_range(o, "t8_5_min", "t8_5_max", "%.2f", "%.2f s"); });
     row("fastest cooling at 540 degC", [](const Outcome& o, const Figures&) { return summary_cell(o, "cooling_rate_540", "%.0f K/s"); });
@@ -156,7 +171,11 @@ Rows table(const std::vector<Outcome>& outcomes) {
     });
     row("lowest preheat (simulation)", [](const Outcome& o, const Figures& f) {
         if (!o.preheat) return std::string("not searched");
-        return o.preheat->found ? or_na("%.0f degC", f.preheat) : "not met up to " + or_na("%.0f degC", o.preheat->searched_to);
+        if (!o.preheat->found) return "not met up to " + or_na("%.0f degC", o.preheat->searched_to);
+        const std::string across = !o.preheat_band           ? ""
+                                   : o.preheat_band->across ? "; across the band " + or_na("%.0f degC", *o.preheat_band->across)
+                                                            : "; across the band: not met";
+        return or_na("%.0f degC", f.preheat) + across;
     });
     row("preheat EN 1011-2 method B", [](const Outcome& o, const Figures& f) {
         return o.preheat ? or_na("%.0f degC", f.standard) : std::string("not computed");
@@ -277,6 +296,19 @@ std::string grid_key(const Case& c) {
     return key;
 }
 
+// Each banded answer's value, low and high (null where there is no band, with why).
+nlohmann::json bands_json(const Outcome& o) {
+    nlohmann::json j = nlohmann::json::object();
+    const auto num = [](const std::optional<double>& v) { return v && std::isfinite(*v) ? nlohmann::json(*v) : nlohmann::json(nullptr); };
+    for (const auto& i : o.summary.items()) {
+        if (!i.banded) continue;
+        j[i.key] = {{"value", num(i.value)}, {"low", num(i.has_band() ? i.low : std::nullopt)},
+                    {"high", num(i.has_band() ? i.high : std::nullopt)}, {"unit", i.unit}};
+        if (!i.has_band()) j[i.key]["no_band"] = i.missing() ? i.reason : i.no_band;
+    }
+    return j;
+}
+
 nlohmann::json to_json(const std::vector<Outcome>& outcomes, const Rows& rows, const std::vector<std::string>& words) {
     nlohmann::json j;
     j["cases"] = nlohmann::json::array();
@@ -312,6 +344,9 @@ nlohmann::json to_json(const std::vector<Outcome>& outcomes, const Rows& rows, c
                               {"haz_peak_max_degC", num(f.peak_hi)},
                               {"haz_hardness_max_HV", num(f.hardness)},
                               {"lowest_preheat_degC", num(f.preheat)},
+                              {"lowest_preheat_across_band_degC",
+                               o.preheat_band && o.preheat_band->across ? nlohmann::json(*o.preheat_band->across) : nlohmann::json(nullptr)},
+                              {"bands", bands_json(o)},
                               {"standard_preheat_degC", num(f.standard)},
                               {"energy_balance_error", o.result.energy.error()},
                               {"run_time_s", o.wall},
@@ -369,6 +404,16 @@ post::CompareReportInput report_input(const std::vector<Outcome>& outcomes, cons
     r.differences = words;
     r.warnings = warnings(outcomes);
     r.caution = post::compare_caution;
+    std::vector<std::string> names;
+    std::vector<const post::Summary*> summaries;
+    std::vector<const AnswerBands*> bands;
+    std::vector<std::pair<std::string, post::MethodRows>> methods;
+    for (const auto& o : outcomes) {
+        names.push_back(o.name), summaries.push_back(&o.summary), bands.push_back(o.bands ? &*o.bands : nullptr);
+        methods.emplace_back(o.name, post::how_computed(method_facts(*o.c)));
+    }
+    r.bands = bands_view(names, summaries, bands, "");
+    r.how_computed = post::merge_how_computed(methods);
     return r;
 }
 
@@ -385,6 +430,7 @@ private:
     void run_cases();
     void run_case(std::size_t i);
     void print_ran(std::size_t first, std::size_t last) const;
+    void band_answers();
     void search_preheats();
     void write_files(const Rows& rows, const std::vector<std::string>& words) const;
     void print_table(const Rows& rows, const std::vector<std::string>& words) const;
@@ -416,6 +462,7 @@ int CompareCommand::run() {
     share_grids();
     print_start();
     run_cases();
+    band_answers();
     search_preheats();
     if (interrupt_flag().load()) {
         std::fprintf(stderr, "heatbead: comparison interrupted; nothing was written\n");
@@ -476,6 +523,25 @@ void CompareCommand::print_ran(std::size_t first, std::size_t last) const {
     std::fflush(stdout);
 }
 
+// Each case's extra runs, `jobs` at a time; a case with bands turned off gets none.
+void CompareCommand::band_answers() {
+    try {
+        for (std::size_t i = 0; i < outcomes_.size(); ++i) {
+            Outcome& o = outcomes_[i];
+            if (interrupt_flag().load()) return;
+            if (o.c->bands.enabled) {
+                o.bands = run_bands(*o.c, *grids_.at(grid_key(*o.c)), *materials_[i], o.summary, jobs_, threads_, interrupt_flag());
+                if (!options_.quiet) {
+                    std::printf("  bands %-26s %zu extra runs, %.1f s\n", o.name.c_str(), o.bands->runs, o.bands->wall);
+                    std::fflush(stdout);
+                }
+            }
+            add_bands(o.summary, o.bands ? &*o.bands : nullptr);
+        }
+    } catch (const BandsInterrupted&) {
+    }
+}
+
 // Only for cases with a composition and the filler's hydrogen, unless --no-preheat.
 void CompareCommand::search_preheats() {
     try {
@@ -484,6 +550,7 @@ void CompareCommand::search_preheats() {
             const Case& c = *o.c;
             if (!options_.preheat || !c.base.composition || !c.filler.diffusible_hydrogen) continue;
             o.preheat = find_preheat(c, jobs_, threads_, interrupt_flag());
+            if (c.bands.enabled && o.preheat->found) o.preheat_band = band_preheat(c, *o.preheat, jobs_, threads_, interrupt_flag());
             if (!options_.quiet) {
                 std::printf("  preheat %-24s %s (%zu runs)\n", o.name.c_str(),
                             o.preheat->found ? or_na("%.0f degC", *o.preheat->found).c_str() : "none found",
@@ -522,6 +589,8 @@ void CompareCommand::print_table(const Rows& rows, const std::vector<std::string
     for (const auto& w : warnings(outcomes_)) std::printf("Warning     %s\n", w.c_str());
     std::printf("Files       %s, compare.csv, compare.html\n", (out_ / "compare.json").string().c_str());
     std::printf("Caution     %s\n", post::compare_caution);
+    for (const auto& o : outcomes_)
+        std::printf("Method      %s: %s\n", o.name.c_str(), post::how_computed_brief(method_facts(*o.c)).c_str());
 }
 
 // Results whose energy balance is off by more than 1 % are written, but the exit code says so.

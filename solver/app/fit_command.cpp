@@ -6,6 +6,7 @@
 
 #include "post/atomic_file.hpp"
 #include "post/cautions.hpp"
+#include "solver/studies/how_computed.hpp"
 #include "post/compare_report.hpp"
 #include "solver/core/exit_codes.hpp"
 #include "solver/core/text.hpp"
@@ -116,6 +117,9 @@ post::CompareReportInput report_input(const Case& c, const Measurements& m, cons
         format_text("The misfit fell from %.4g to %.4g in %d runs.", f.before.misfit, f.after.misfit, f.runs));
     r.warnings = f.warnings;
     r.caution = post::fit_caution;
+    post::MethodFacts facts = method_facts(c);
+    facts.bands = post::fit_makes_no_bands;
+    r.how_computed = post::how_computed(facts);
     return r;
 }
 

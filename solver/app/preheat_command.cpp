@@ -12,7 +12,9 @@
 #include "solver/studies/preheat_search.hpp"
 #include "solver/app/run_command.hpp"
 #include "solver/app/run_files.hpp"
+#include "solver/app/preheat_band_output.hpp"
 #include "solver/physics/procedure.hpp"
+#include "solver/studies/how_computed.hpp"
 
 #include <nlohmann/json.hpp>
 
@@ -309,16 +311,31 @@ int preheat_command(const LoadedCase& loaded, const PreheatOptions& options) {
     };
     const auto start = std::chrono::steady_clock::now();
     PreheatAnswer answer;
+    double wall = 0;  // s the search took (the band's runs are timed apart)
+    std::optional<PreheatBand> band;
     try {
         answer = find_preheat(c, jobs, threads, interrupt_flag(), on_round);
+        wall = std::chrono::duration<double>(std::chrono::steady_clock::now() - start).count();
+        if (c.bands.enabled && answer.found) {
+            if (!options.quiet) {
+                std::printf("Bands       the band at %.0f degC, then the search against its worst side\n", *answer.found);
+                std::fflush(stdout);
+            }
+            band = band_preheat(c, answer, jobs, threads, interrupt_flag());
+        }
     } catch (const SearchInterrupted&) {
         std::fprintf(stderr, "heatbead: preheat search interrupted; the %zu runs finished are in %s, no answer was "
                              "written\n", printed, runs_file.string().c_str());
         return exit_code::run_failed;
     }
-    const double wall = std::chrono::duration<double>(std::chrono::steady_clock::now() - start).count();
-    post::write_file_atomically(out / "preheat.json", to_json(answer, c).dump(2) + "\n");
-    post::write_preheat_report(out / "preheat.html", report_input(answer, c));
+    nlohmann::json json = to_json(answer, c);
+    json["band"] = band ? band_json(*band) : nlohmann::json(nullptr);
+    if (!band) json["no_band"] = c.bands.enabled ? "no preheat meets the limits at the nominal values" : "bands.enabled = false";
+    post::write_file_atomically(out / "preheat.json", json.dump(2) + "\n");
+    post::PreheatReportInput report = report_input(answer, c);
+    if (band) add_band_to_report(report, *band);
+    report.how_computed = post::how_computed(method_facts(c));
+    post::write_preheat_report(out / "preheat.html", report);
 
     if (!options.quiet) {
         const auto& in = answer.standard_input;
@@ -327,6 +344,9 @@ int preheat_command(const LoadedCase& loaded, const PreheatOptions& options) {
         std::printf("Runs        %zu in %.0f s\n", answer.trials.size(), wall);
         std::printf("Simulation  %s\n", answer.found ? ("lowest preheat meeting the limits: " + format_text("%.0f degC", *answer.found)).c_str()
                                                      : not_met_text(answer, c).c_str());
+        if (band) {
+            for (const auto& line : band_lines(*band)) std::printf("Band        %s\n", line.c_str());
+        }
         std::printf("Standard    EN 1011-2 method B (CET %.3f, d %.0f mm, HD %.0f ml/100g, Q %.2f kJ/mm): %.0f degC%s\n",
                     answer.standard.cet, in.thickness, in.hydrogen, in.heat_input, answer.standard.formula,
                     answer.standard.formula < c.preheat_search.lowest ? " (no preheat)" : "");
@@ -337,6 +357,7 @@ int preheat_command(const LoadedCase& loaded, const PreheatOptions& options) {
         for (const auto& w : warnings(answer, c)) std::printf("Warning     %s\n", w.c_str());
         std::printf("Files       %s, preheat.html, preheat_runs.csv\n", (out / "preheat.json").string().c_str());
         std::printf("Caution     %s\n", post::preheat_caution);
+        std::printf("Method      %s\n", post::how_computed_brief(method_facts(c)).c_str());
     }
     for (const auto& t : answer.trials) {
         if (std::abs(t.energy_error) > 0.01) return exit_code::outside_validity;

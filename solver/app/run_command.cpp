@@ -13,6 +13,8 @@
 #include "solver/physics/procedure.hpp"
 #include "solver/app/progress.hpp"
 #include "solver/numerics/run_estimate.hpp"
+#include "solver/studies/answer_bands.hpp"
+#include "solver/studies/how_computed.hpp"
 #include "solver/studies/run_setup.hpp"
 
 #include <algorithm>
@@ -23,6 +25,7 @@
 #include <filesystem>
 #include <optional>
 #include <omp.h>
+#include <thread>
 
 namespace heatbead {
 
@@ -82,6 +85,7 @@ private:
     bool failed() const;
     int clean_up_failure() const;
     void analyse();
+    bool make_bands();
     void write_hdf5();
     void write_tables();
     void write_section_lines();
@@ -105,6 +109,7 @@ private:
     double wall_ = 0;  // s the run took
     RunAnalysis analysis_;
     post::Summary summary_;
+    std::optional<AnswerBands> bands_;  // none: turned off
     std::vector<std::string> written_;  // what the screen lists under "Files"
 };
 
@@ -125,6 +130,7 @@ int RunCommand::run() {
     simulate();
     if (failed()) return clean_up_failure();
     analyse();
+    if (!make_bands()) return clean_up_failure();
     write_hdf5();
     write_tables();
     write_section_lines();
@@ -181,6 +187,26 @@ void RunCommand::analyse() {
     summary_ = make_summary(c_, result_, analysis_, wall_);
 }
 
+// The extra runs side by side, as many at a time as the run had threads (one per core by default).
+bool RunCommand::make_bands() {
+    if (c_.bands.enabled) {
+        const int cores = static_cast<int>(std::max(1u, std::thread::hardware_concurrency()));
+        const int total = options_.threads > 0 ? options_.threads : cores;
+        const int jobs = std::min(total, static_cast<int>(band_variants(c_).size()));
+        if (!options_.quiet) {
+            std::printf("Bands       running %zu extra runs, %d at a time\n", band_variants(c_).size(), jobs);
+            std::fflush(stdout);
+        }
+        try {
+            bands_ = run_bands(c_, grid_, material_, summary_, jobs, std::max(1, total / jobs), interrupt_flag());
+        } catch (const BandsInterrupted&) {
+            return false;
+        }
+    }
+    add_bands(summary_, bands_ ? &*bands_ : nullptr);
+    return true;
+}
+
 void RunCommand::write_hdf5() {
     if (!wants("hdf5")) return;
     const auto file = out_ / "results.h5";
@@ -219,7 +245,10 @@ void RunCommand::write_report() {
     std::vector<std::string> notes;
     for (const auto& [group, note] : summary_.notes()) notes.push_back(note);
     if (!analysis_.section.root_fused) notes.push_back("the root is not fused");
-    post::write_report(out_ / "report.html", make_report_input(c_, prepared_, analysis_, summary_, notes));
+    post::ReportInput input = make_report_input(c_, prepared_, analysis_, summary_, notes);
+    input.bands = bands_view({"this run"}, {&summary_}, {bands_ ? &*bands_ : nullptr}, "");
+    input.how_computed = post::how_computed(method_facts(c_, prepared_.sim->cells().size()));
+    post::write_report(out_ / "report.html", input);
     written_.push_back((out_ / "report.html").string());
 }
 
@@ -233,9 +262,16 @@ void RunCommand::print_summary() const {
     if (material_.parameters().liquid_conductivity_factor > 1) {
         std::printf("Material    %s\n", material_.description().c_str());
     }
+    if (bands_) {
+        std::printf("Bands       %zu extra runs in %.1f s (%.1f x this run): the bands shown in brackets\n", bands_->runs,
+                    bands_->wall, bands_->wall / std::max(wall_, 1e-9));
+    } else {
+        std::printf("Bands       none: bands.enabled = false\n");
+    }
     for (const auto& w : c_.warnings) std::printf("Warning     %s\n", w.c_str());
     for (const auto& f : written_) std::printf("Files       %s\n", f.c_str());
     std::printf("Caution     %s\n", post::planning_caution);
+    std::printf("Method      %s\n", post::how_computed_brief(method_facts(c_, prepared_.sim->cells().size())).c_str());
 }
 
 // Results whose energy balance is off by more than 1 % are written, but the exit code says so.

@@ -12,6 +12,7 @@
 #include "solver/core/text.hpp"
 #include "solver/app/run_command.hpp"
 #include "solver/app/run_files.hpp"
+#include "solver/studies/how_computed.hpp"
 #include "solver/studies/sweep_plan.hpp"
 
 #include <mpi.h>
@@ -84,6 +85,11 @@ nlohmann::json outputs_of(const fs::path& dir) {
         nlohmann::json output{{"key", key}, {"unit", item.value("unit", "")}, {"value", item["value"]}};
         if (item.contains("reason")) output["reason"] = item["reason"];
         outputs.push_back(std::move(output));
+        // A band (points run with bands.enabled = true) becomes two columns of its own.
+        for (const char* end : {"low", "high"}) {
+            if (item.contains(end) && !item[end].is_null())
+                outputs.push_back({{"key", key + "_" + end}, {"unit", item.value("unit", "")}, {"value", item[end]}});
+        }
     }
     return outputs;
 }
@@ -240,8 +246,9 @@ constexpr const char* main_outputs[] = {"penetration_flange", "penetration_web",
                                         "haz_width_flange", "haz_hardness_max"};
 
 post::SweepReportInput report_of(const std::vector<nlohmann::json>& rows, const Columns& c, const std::string& sweep_file,
-                                 std::size_t total) {
+                                 std::size_t total, const post::MethodRows& how) {
     post::SweepReportInput r;
+    r.how_computed = how;
     r.title = "Sweep: " + fs::path(sweep_file).stem().string();
     r.sweep_file = sweep_file;
     r.created = now_utc();
@@ -253,6 +260,10 @@ post::SweepReportInput report_of(const std::vector<nlohmann::json>& rows, const 
             if (k == key) r.outputs.push_back({k, u});
         }
     }
+    const auto band_end = [](const nlohmann::json& row, const std::string& key) {
+        const auto& v = output_value(row, key);
+        return v.is_number() ? v.get<double>() : nan;
+    };
     for (const auto& row : rows) {
         if (!done(row)) {
             post::SweepReportInput::Failure f;
@@ -269,11 +280,14 @@ post::SweepReportInput report_of(const std::vector<nlohmann::json>& rows, const 
         }
         std::vector<double> values;
         for (const auto& a : row["axes"]) values.push_back(a["value"].is_number() ? a["value"].get<double>() : nan);
+        std::vector<double> lows, highs;
         for (const auto& o : r.outputs) {
             const auto& v = output_value(row, o.name);
             values.push_back(v.is_number() ? v.get<double>() : nan);
+            lows.push_back(band_end(row, o.name + "_low")), highs.push_back(band_end(row, o.name + "_high"));
         }
         r.rows.push_back(std::move(values));
+        r.lows.push_back(std::move(lows)), r.highs.push_back(std::move(highs));
     }
     return r;
 }
@@ -293,12 +307,12 @@ void write_table_csv(const fs::path& dir) {
 
 // table.csv, table.h5 and report.html of `dir` from every row there.
 void write_outputs(const fs::path& dir, const std::string& sweep_text, const std::string& base_case,
-                   const std::string& sweep_file, std::size_t total) {
+                   const std::string& sweep_file, std::size_t total, const post::MethodRows& how) {
     const auto rows = sorted_rows(dir);
     const Columns c = columns_of(rows);
     post::write_file_atomically(dir / "table.csv", table_csv(rows, c));
     post::write_hdf5_table(dir / "table.h5", table_h5(rows, c, sweep_text, base_case));
-    post::write_sweep_report(dir / "report.html", report_of(rows, c, sweep_file, total));
+    post::write_sweep_report(dir / "report.html", report_of(rows, c, sweep_file, total, how));
 }
 
 void log_line(const fs::path& dir, const std::string& line) {
@@ -510,7 +524,9 @@ int sweep_command(const std::string& sweep_file, const SweepOptions& o) {
         job.hash = text_hash(job.resolved);
         all.push_back(std::move(job));
     }
-    const std::string base_case = load_case(plan.base, plan.fixed).resolved_toml;
+    const LoadedCase base = load_case(plan.base, base_overrides(plan));
+    const std::string& base_case = base.resolved_toml;
+    const post::MethodRows how = post::how_computed(method_facts(base.value));
     std::map<std::string, nlohmann::json> before = rows_in(out);
     std::vector<Job> pending;
     for (const auto& j : all) {
@@ -535,7 +551,7 @@ int sweep_command(const std::string& sweep_file, const SweepOptions& o) {
         if (mpi && size > 1) run_mpi_master(plan, pending, out, progress, on_row, size);
         else run_local(plan, pending, out, o, progress, on_row);
         progress.finish();
-        write_outputs(out, plan.text, base_case, sweep_file, all.size());
+        write_outputs(out, plan.text, base_case, sweep_file, all.size(), how);
         if (!o.quiet) {
             std::printf("Points      %zu done (%zu this run, %zu from before), %zu failed\n", progress.done + progress.skipped,
                         progress.done, progress.skipped, progress.failed);
@@ -553,6 +569,18 @@ int sweep_command(const std::string& sweep_file, const SweepOptions& o) {
     if (mpi) MPI_Finalize();
     return code;
 }
+
+namespace {
+// How the merged sweep was computed, from its resolved base case (the shards share it); none when
+// it does not read back from where it was written (a property table beside the original case).
+post::MethodRows merged_how_computed(const fs::path& out) {
+    try {
+        return post::how_computed(method_facts(load_case((out / "base.resolved.toml").string()).value));
+    } catch (const CaseError&) {
+        return {};
+    }
+}
+}  // namespace
 
 int sweep_merge_command(const std::string& out_dir, const std::vector<std::string>& shard_dirs, bool quiet) {
     const fs::path out(out_dir);
@@ -577,7 +605,7 @@ int sweep_merge_command(const std::string& out_dir, const std::vector<std::strin
     }
     post::write_file_atomically(out / "sweep.toml", sweep_text);
     post::write_file_atomically(out / "base.resolved.toml", base_case);
-    write_outputs(out, sweep_text, base_case, sweep_file, rows_in(out).size());
+    write_outputs(out, sweep_text, base_case, sweep_file, rows_in(out).size(), merged_how_computed(out));
     if (!quiet) std::printf("Merged      %zu points from %zu folders into %s\n", rows, shard_dirs.size(), (out / "table.csv").string().c_str());
     return exit_code::ok;
 }

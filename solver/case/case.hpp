@@ -84,6 +84,16 @@ struct PreheatSearchSpec {
     double resolution = 5;                  // K
 };
 
+// How sure each headline answer is (solver/studies/answer_bands.hpp): whether the extra runs of
+// the band are made, and the spreads of the inputs a user rarely knows well ([bands]).
+struct BandSpec {
+    bool enabled = true;
+    double arc_efficiency_spread = 0.1;   // ± on the arc efficiency (net / electrical power)
+    std::string arc_efficiency_spread_source;
+    double source_spread = 0.2;           // ± share of each Goldak dimension
+    std::string source_spread_source;
+};
+
 // Which bead a run lays: the one the wire deposits (mass conservation, keeping the asked legs'
 // ratio and face), or the asked one exactly, for a bead that was measured.
 enum class BeadLaying { from_wire, as_asked };
@@ -112,6 +122,7 @@ struct Case {
     SolverSpec solver;
     OutputSpec output;
     PreheatSearchSpec preheat_search;
+    BandSpec bands;
     std::vector<std::string> warnings;  // unusual but possible values, found while reading
 };
 

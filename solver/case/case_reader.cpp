@@ -438,6 +438,23 @@ void read_preheat_search(Case& c, CaseDocument& doc) {
     }
 }
 
+// Spreads of the bands ([bands]): by default the process's for the arc efficiency, and for the
+// source's dimensions ±20 % from the procedure's rule of thumb or ±10 % when the case gives them,
+// taken to come from a calibration (heatbead fit writes them) or a measured macro-section.
+void read_bands(Case& c, CaseDocument& doc) {
+    auto s = doc.section("bands", false);
+    auto& b = c.bands;
+    b.enabled = s.flag("enabled", true);
+    const auto fallback = arc_efficiency_spread(c.procedure.process);
+    b.arc_efficiency_spread = s.number("arc_efficiency_spread", fallback.value, Bounds::closed(0, 0.5));
+    b.arc_efficiency_spread_source = s.has("arc_efficiency_spread") ? "given in the case" : std::string(fallback.source);
+    const bool given = !c.source.from_procedure;
+    b.source_spread = s.number("source_spread", given ? 0.1 : 0.2, Bounds::closed(0, 0.5));
+    b.source_spread_source = s.has("source_spread") ? "given in the case"
+                             : given ? "the dimensions given, taken as calibrated (heatbead fit or a macro-section)"
+                                     : "the procedure's rule of thumb, not calibrated";
+}
+
 // The bead laid (bead.laid): the asked fillet scaled to the wire's deposit, or the asked one. Needs
 // a sound case so far.
 void lay_bead(Case& c, CaseDocument& doc) {
@@ -531,6 +548,7 @@ LoadedCase read_case(const std::string& path, const std::vector<Override>& overr
     read_solver(c, doc, facts);
     read_output(c, doc);
     read_preheat_search(c, doc);
+    read_bands(c, doc);
     doc.finish();  // throws on any problem so far: the checks below need a sound case
     lay_bead(c, doc);
     check_probes(c, doc);

@@ -469,6 +469,22 @@ long Section::integer(std::string_view key, long lo, long hi, std::optional<long
     return static_cast<long>(i->get());
 }
 
+bool Section::flag(std::string_view key, bool fallback) {
+    const toml::node* node = find(key);
+    const auto word = [](bool b) { return std::string(b ? "true" : "false"); };
+    if (!node) {
+        doc_->record(name_, std::string(key), word(fallback), "default");
+        return fallback;
+    }
+    const auto* b = node->as_boolean();
+    if (!b) {
+        doc_->add_error(node, key_path(key), "expected true or false (no quotes); got " + type_name(*node));
+        return fallback;
+    }
+    doc_->record(name_, std::string(key), word(b->get()), "");
+    return b->get();
+}
+
 std::vector<std::string> Section::choice_list(std::string_view key, std::span<const std::string_view> allowed,
                                               std::vector<std::string> fallback) {
     const toml::node* node = find(key);

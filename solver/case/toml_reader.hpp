@@ -130,6 +130,8 @@ public:
                        std::optional<std::string_view> fallback);
     std::string text(std::string_view key, std::string_view fallback);
     long integer(std::string_view key, long lo, long hi, std::optional<long> fallback);
+    // A TOML boolean (true or false).
+    bool flag(std::string_view key, bool fallback);
     // A list of words, each from `allowed`.
     std::vector<std::string> choice_list(std::string_view key,
                                          std::span<const std::string_view> allowed,

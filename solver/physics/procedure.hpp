@@ -29,6 +29,9 @@ struct EfficiencyDefault {
 };
 // Thermal efficiency factor k of the process (EN 1011-1:2009 Table 1, also ISO/TR 17671-1).
 EfficiencyDefault default_arc_efficiency(Process process);
+// How far a process's real arc efficiency may lie from that factor, ± on the efficiency: the spread
+// the answer bands give it when the case does not (bands.arc_efficiency_spread), with its source.
+EfficiencyDefault arc_efficiency_spread(Process process);
 
 // Electrical power of the arc: the instantaneous power of a waveform when the case gives one
 // (ISO/TR 18491), else U·I [W].

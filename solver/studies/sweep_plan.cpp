@@ -135,8 +135,14 @@ std::string text_hash(const std::string& text) {
     return format_text("%016llx", static_cast<unsigned long long>(h));
 }
 
+std::vector<Override> base_overrides(const SweepPlan& plan) {
+    std::vector<Override> o{{"bands.enabled", "false"}};
+    o.insert(o.end(), plan.fixed.begin(), plan.fixed.end());
+    return o;
+}
+
 std::vector<Override> point_overrides(const SweepPlan& plan, const SweepPoint& point) {
-    std::vector<Override> o = plan.fixed;
+    std::vector<Override> o = base_overrides(plan);
     for (std::size_t a = 0; a < plan.axes.size(); ++a) o.push_back({plan.axes[a].key, point.values[a]});
     return o;
 }

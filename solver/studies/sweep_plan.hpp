@@ -50,7 +50,11 @@ struct SweepPlan {
 // Throws CaseError with every problem (file:line, key, value, what is allowed); nothing is run.
 SweepPlan read_sweep_plan(const std::string& path);
 
-// The overrides of one point: [set] first, then one per axis.
+// The overrides of every point: bands off (a sweep maps the response over its axes, and the bands'
+// extra runs would multiply its cost several times), then [set], which may turn them on again
+// ("bands.enabled" = true).
+std::vector<Override> base_overrides(const SweepPlan& plan);
+// The overrides of one point: those of every point, then one per axis.
 std::vector<Override> point_overrides(const SweepPlan& plan, const SweepPoint& point);
 
 // 64-bit FNV-1a hash of a text, as 16 hex digits: the identity of a point's resolved case.
